@@ -1,0 +1,22 @@
+// Sheaf: the repository root is Nuxt's source folder (pages/, components/, stores/ at the root).
+export default defineNuxtConfig({
+  compatibilityDate: '2025-07-15',
+  srcDir: '.',
+  devtools: { enabled: false },
+  telemetry: false,
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt'],
+  css: ['@fontsource/public-sans/400.css', '@fontsource/public-sans/600.css', '@fontsource/public-sans/700.css'],
+  pinia: { storesDirs: ['./stores/**'] },
+  tailwindcss: { configPath: 'tailwind.config.ts', viewer: false },
+  imports: { dirs: ['stores'] },
+  runtimeConfig: {
+    databaseUrl: process.env.DATABASE_URL ?? 'postgres://sheaf@127.0.0.1:54329/sheaf',
+    redisUrl: process.env.REDIS_URL ?? 'redis://127.0.0.1:63790',
+    smtpUrl: process.env.SMTP_URL ?? 'smtp://127.0.0.1:2525',
+    mailFake: process.env.SHEAF_MAIL_FAKE ?? '1',
+    appOrigin: process.env.APP_ORIGIN ?? 'http://127.0.0.1:3000'
+  },
+  nitro: { preset: 'node-server' },
+  typescript: { strict: true, typeCheck: false },
+  app: { head: { title: 'Sheaf', htmlAttrs: { lang: 'en' } } }
+})
