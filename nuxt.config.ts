@@ -13,7 +13,7 @@ export default defineNuxtConfig({
     databaseUrl: process.env.DATABASE_URL ?? 'postgres://sheaf@127.0.0.1:54329/sheaf',
     redisUrl: process.env.REDIS_URL ?? 'redis://127.0.0.1:63790',
     smtpUrl: process.env.SMTP_URL ?? 'smtp://127.0.0.1:2525',
-    mailFake: process.env.SHEAF_MAIL_FAKE ?? '1',
+    mailFake: process.env.SHEAF_MAIL_FAKE ?? '0',
     appOrigin: process.env.APP_ORIGIN ?? 'http://127.0.0.1:3000'
   },
   nitro: { preset: 'node-server' },

@@ -19,6 +19,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'integration', root, include: ['tests/integration/**/*.test.ts'], environment: 'node',
+          globalSetup: ['tests/support/global-setup.ts'],
           testTimeout: 60_000, hookTimeout: 240_000, fileParallelism: false
         }
       },
@@ -26,6 +27,7 @@ export default defineConfig({
         resolve: { alias },
         test: {
           name: 'browser', root, include: ['tests/browser/**/*.test.ts'], environment: 'node',
+          globalSetup: ['tests/support/global-setup.ts'],
           testTimeout: 120_000, hookTimeout: 300_000, fileParallelism: false
         }
       }

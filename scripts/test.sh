@@ -1,0 +1,58 @@
+#!/usr/bin/env bash
+# npm test: the same provisioning as npm start, into throw-away stores: a fresh database
+# sheaf_test_<pid> in the project's PostgreSQL cluster (dropped at the end), a Redis without
+# persistence on port 63791 (flushed first), a mail fake on port 2526 and the app on port 3100.
+# Then the whole vitest suite (unit, integration, browser). Extra arguments go to vitest, e.g.
+#   bash scripts/test.sh --project integration tests/integration/auth.test.ts
+# Services this script started are stopped again at the end.
+source "$(dirname "$0")/lib/services.sh"
+cd "$ROOT"
+started_at=$(date +%s)
+
+APP_PORT="${SHEAF_TEST_APP_PORT:-3100}"
+MAIL_PORT="${SHEAF_TEST_MAIL_PORT:-2526}"
+DB_NAME="sheaf_test_$$"
+
+ensure_packages with-browser
+ensure_node_modules
+
+pg_was_running=0
+PGDATA_DIR="$(pg_datadir)"
+as_pg "$(pg_bin)/pg_ctl" -D "$PGDATA_DIR" status >/dev/null 2>&1 && pg_was_running=1
+redis_was_running=0
+redis_running "$REDIS_TEST_PORT" && redis_was_running=1
+
+cleanup() {
+  local rc=$?
+  trap - EXIT INT TERM
+  pg_drop_db "$DB_NAME" >/dev/null 2>&1 || true
+  [ "$redis_was_running" = 1 ] || redis_stop "$REDIS_TEST_PORT"
+  [ "$pg_was_running" = 1 ] || pg_stop
+  exit "$rc"
+}
+trap cleanup EXIT INT TERM
+
+pg_start
+pg_create_db "$DB_NAME"
+redis_start "$REDIS_TEST_PORT" ephemeral
+redis-cli -h 127.0.0.1 -p "$REDIS_TEST_PORT" flushall >/dev/null
+
+export DATABASE_URL="$(pg_url "$DB_NAME")"
+export REDIS_URL="redis://127.0.0.1:$REDIS_TEST_PORT/0"
+export SMTP_URL="smtp://127.0.0.1:$MAIL_PORT"
+export SHEAF_MAIL_FAKE=1
+export APP_ORIGIN="http://127.0.0.1:$APP_PORT"
+export TEST_APP_URL="$APP_ORIGIN"
+export SHEAF_TRUST_PROXY=1
+
+node_modules/.bin/tsx scripts/migrate.ts
+build_if_needed
+
+log "running vitest (unit, integration, browser)"
+set +e
+node_modules/.bin/vitest run --config tests/vitest.config.ts "$@" 2>&1 | tee "$DATA/test-vitest.log"
+status=${PIPESTATUS[0]}
+set -e
+summary=$(sed 's/\x1b\[[0-9;]*m//g' "$DATA/test-vitest.log" | grep -E '^\s+(Test Files|Tests)\s' | tail -n 2 | sed 's/^ *//' | paste -sd ';' - | sed 's/;/ · /')
+log "summary: ${summary:-no vitest summary (see .data/test-vitest.log)} · $(( $(date +%s) - started_at )) s in all"
+exit "$status"

@@ -1,0 +1,9 @@
+// Always answers the same, so the form does not reveal which addresses have accounts.
+export default defineEventHandler(async (event) => {
+  const { email } = await readValid(event, resetRequestSchema)
+  const user = await findUserByEmail(email)
+  if (user && !user.emailVerifiedAt && await mayMail(email)) {
+    await useDB().transaction(tx => sendVerificationMail(tx, user))
+  }
+  return { ok: true }
+})

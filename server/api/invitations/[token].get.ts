@@ -1,0 +1,6 @@
+// What an invitation link offers, so the page can show it before the visitor signs in.
+export default defineEventHandler(async (event) => {
+  const token = tokenParam(event, 'Invitation')
+  const { invitation, workspaceName, inviterName } = await findOpenInvitation(token)
+  return { workspaceName, inviterName, email: invitation.email, role: invitation.role, expiresAt: invitation.expiresAt }
+})
