@@ -1,4 +1,5 @@
 import { fileURLToPath } from 'node:url'
+import vue from '@vitejs/plugin-vue'
 import { defineConfig } from 'vitest/config'
 
 const root = fileURLToPath(new URL('..', import.meta.url))
@@ -12,6 +13,7 @@ export default defineConfig({
   test: {
     projects: [
       {
+        plugins: [vue()],
         resolve: { alias },
         test: { name: 'unit', root, include: ['tests/unit/**/*.test.ts'], environment: 'node' }
       },

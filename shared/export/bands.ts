@@ -1,0 +1,77 @@
+import { writeCsv } from '../bins/csv'
+import { provenanceLines, provenanceObject } from './provenance'
+import { RESULT_CAUTION } from './caution'
+import type { ExportBand, ResultForExport } from './types'
+
+/** Refuses a result whose bands do not have one value per bin, or negative errors. */
+export function checkResult(result: ResultForExport): void {
+  const n = result.bins.length
+  if (!result.bands.length) throw new RangeError('A result export needs at least one band')
+  for (const band of result.bands) {
+    for (const part of ['central', 'plus', 'minus'] as const) {
+      if (band[part].length !== n) throw new RangeError(`Band ${band.id} has ${band[part].length} ${part} values for ${n} bins`)
+    }
+    for (let i = 0; i < n; i++) {
+      if (band.plus[i]! < 0 || band.minus[i]! < 0) throw new RangeError(`Band ${band.id}, bin ${i + 1}: errors are magnitudes and must be ≥ 0`)
+    }
+  }
+}
+
+/** 100·Δ/|central|, or null when the central value is zero or not finite. */
+export const relativePercent = (delta: number, central: number) =>
+  central !== 0 && Number.isFinite(central) && Number.isFinite(delta) ? (100 * delta) / Math.abs(central) : null
+
+const bandCells = (band: ExportBand, i: number) => {
+  const c = band.central[i]!
+  return [c, band.plus[i]!, band.minus[i]!, relativePercent(band.plus[i]!, c), relativePercent(band.minus[i]!, c)]
+}
+
+/**
+ * Bands as CSV, one line per bin: the bin's kinematic columns (by key), then for every band
+ * `central[id]`, `plus[id]`, `minus[id]`, `rel_plus_pct[id]`, `rel_minus_pct[id]` (errors as
+ * magnitudes, relative errors in percent of |central|). Provenance and caution come first as
+ * `# ` comment lines. Numbers keep full precision.
+ */
+export function bandsToCsv(result: ResultForExport): string {
+  checkResult(result)
+  const header = [
+    ...result.binColumns.map(c => c.key),
+    ...result.bands.flatMap(b => ['central', 'plus', 'minus', 'rel_plus_pct', 'rel_minus_pct'].map(h => `${h}[${b.id}]`))
+  ]
+  const lines = result.bins.map((bin, i) => [
+    ...result.binColumns.map(c => bin[c.key] ?? null),
+    ...result.bands.flatMap(b => bandCells(b, i))
+  ])
+  const units = result.binColumns.filter(c => c.unit).map(c => `${c.key} [${c.unit}]`)
+  const comments = [
+    ...provenanceLines(result.provenance, result.observable, 'bands'),
+    `columns: ${[...units, `central/plus/minus [${result.observable.unit ?? 'dimensionless'}]`, 'rel_*_pct [%]'].join(', ')}`,
+    `bands: ${result.bands.map(b => `${b.id} = ${b.label}`).join('; ')}`
+  ]
+  return writeCsv([header, ...lines], { comments })
+}
+
+/** Bands as a JSON-ready object: provenance, caution, columns, and per bin its kinematics and bands. */
+export function bandsToJson(result: ResultForExport) {
+  checkResult(result)
+  return {
+    format: 'sheaf-bands',
+    formatVersion: 1,
+    provenance: provenanceObject(result.provenance),
+    caution: RESULT_CAUTION,
+    observable: result.observable,
+    columns: result.binColumns.map(({ key, label, unit }) => ({ key, label, ...(unit ? { unit } : {}) })),
+    bands: result.bands.map(({ id, label }) => ({ id, label })),
+    bins: result.bins.map((bin, i) => ({
+      index: i + 1,
+      kinematics: Object.fromEntries(result.binColumns.map(c => [c.key, bin[c.key] ?? null])),
+      values: Object.fromEntries(result.bands.map((b) => {
+        const [central, plus, minus, relPlusPercent, relMinusPercent] = bandCells(b, i)
+        return [b.id, { central, plus, minus, relPlusPercent, relMinusPercent }]
+      }))
+    }))
+  }
+}
+
+/** {@link bandsToJson} as text, two-space indented. */
+export const bandsToJsonText = (result: ResultForExport) => `${JSON.stringify(bandsToJson(result), null, 2)}\n`

@@ -1,0 +1,19 @@
+// Result exports: pure formatters (no DOM, no I/O) and the shared caution text.
+
+// Types
+export type { ApprovalState, ExportBand, ExportObservable, ExportProvenance, MatrixForExport, ResultForExport } from './types'
+// Caution shown with every result
+export { RESULT_CAUTION, RESULT_CAUTION_SHORT } from './caution'
+// Provenance
+export { approvalText, confidenceText, provenanceLines, provenanceObject, setText } from './provenance'
+// Number rounding for printed tables
+export { decimalExponent, roundDecimal, roundMeasurement, roundSignificant } from './numbers'
+export type { RoundedMeasurement, RoundingOptions } from './numbers'
+// Formats
+export { bandsToCsv, bandsToJson, bandsToJsonText, checkResult, relativePercent } from './bands'
+export { bandsToLatex, latexMeasurement, latexNumber, latexText } from './latex'
+export type { LatexTableOptions } from './latex'
+export { matrixToCsv } from './matrices'
+// Figures (plain Plotly-shaped objects)
+export { CORRELATION_SCALE, FIGURE_FONT, FIGURE_INK, FIGURE_PALETTE, axisTitle, bandFigure, correlationFigure, eigenvectorFigure, flavourName, forwardImages, houseAxis, houseConfig, houseLayout, tryFigure, withAlpha } from './figures'
+export type { AxisSpec, BandFigureInput, BandSeries, BinPositions, EigenvectorFigureInput, EigenvectorShift, EnvelopeBand, Figure, FigureImages, PlotTrace } from './figures'

@@ -1,0 +1,58 @@
+import { RESULT_CAUTION } from './caution'
+import type { ExportObservable, ExportProvenance } from './types'
+
+export const isoTime = (t: string | Date) => (typeof t === 'string' ? t : t.toISOString())
+
+/** "68% CL" or "68% CL (set published at 90% CL, rescaled)". */
+export function confidenceText(p: ExportProvenance): string {
+  const rescaled = p.setConfidenceLevelPercent !== undefined && p.setConfidenceLevelPercent !== p.confidenceLevelPercent
+  return `${p.confidenceLevelPercent}% CL${rescaled ? ` (set published at ${p.setConfidenceLevelPercent}% CL, rescaled)` : ''}`
+}
+
+/** "approved by Ana Ruiz at 2025-03-02T10:00:00Z", "submitted for review", "draft, not reviewed". */
+export function approvalText(p: ExportProvenance): string {
+  const { state, by, at } = p.approval
+  const who = `${by ? ` by ${by}` : ''}${at ? ` at ${isoTime(at)}` : ''}`
+  switch (state) {
+    case 'approved': return `approved${who}`
+    case 'submitted': return `submitted for review${who}, not yet approved`
+    case 'returned': return `returned by the reviewer${who}, not approved`
+    default: return 'draft, not reviewed'
+  }
+}
+
+export const setText = (p: ExportProvenance) => `${p.set.name} version ${p.set.version} (${p.set.kind}${p.set.family ? `, family ${p.set.family}` : ''})`
+
+const constantsText = (c: ExportProvenance['kernel']['constants']) =>
+  Object.entries(c).map(([k, v]) => `${k}=${v}`).join(', ') || 'none'
+
+/**
+ * The provenance as "key: value" lines, the same in every format (CSV `#` comments, LaTeX `%`
+ * comments), ending with the caution.
+ */
+export function provenanceLines(p: ExportProvenance, observable: ExportObservable, what: string): string[] {
+  return [
+    `Sheaf export: ${what}`,
+    ...(p.study ? [`study: ${p.study.name}${p.study.id ? ` (${p.study.id})` : ''}`] : []),
+    `observable: ${observable.name}${observable.unit ? ` [${observable.unit}]` : ''}`,
+    `set: ${setText(p)}`,
+    `prescription: ${p.prescription}; ${confidenceText(p)}`,
+    `kernel: ${p.kernel.id}${p.kernel.label ? ` (${p.kernel.label})` : ''}; constants: ${constantsText(p.kernel.constants)}`,
+    `engine version: ${p.engineVersion}`,
+    `run by: ${p.ranBy} at ${isoTime(p.ranAt)}`,
+    `result version: ${p.resultVersion}; ${approvalText(p)}`,
+    ...(p.exportedAt || p.exportedBy ? [`exported${p.exportedBy ? ` by ${p.exportedBy}` : ''}${p.exportedAt ? ` at ${isoTime(p.exportedAt)}` : ''}`] : []),
+    `caution: ${RESULT_CAUTION}`
+  ]
+}
+
+/** The provenance as a plain object for JSON (dates as ISO strings). */
+export function provenanceObject(p: ExportProvenance) {
+  return {
+    ...p,
+    ranAt: isoTime(p.ranAt),
+    approval: { ...p.approval, ...(p.approval.at ? { at: isoTime(p.approval.at) } : {}) },
+    ...(p.exportedAt ? { exportedAt: isoTime(p.exportedAt) } : {}),
+    confidence: confidenceText(p)
+  }
+}

@@ -1,0 +1,75 @@
+import type { BinColumn, BinRow } from '../bins/types'
+
+/**
+ * Inputs of the export formatters. The lead's routes fill them from the stored result; nothing
+ * here reads a database. Dates are ISO 8601 strings (or Date objects, printed as ISO).
+ */
+
+/** Review state of a result version; 'approved' versions are frozen. */
+export type ApprovalState = 'draft' | 'submitted' | 'returned' | 'approved'
+
+/** Where a result came from: printed at the top of every export. */
+export interface ExportProvenance {
+  study?: { id?: string, name: string }
+  set: { name: string, version: string, kind: string, family?: string }
+  /** The prescription the study reports, as a reader should see it ("Hessian pairs, asymmetric"). */
+  prescription: string
+  /** Confidence level of the reported bands, in percent. */
+  confidenceLevelPercent: number
+  /** CL the set's members are published at, when it differs (the bands were rescaled). */
+  setConfidenceLevelPercent?: number
+  kernel: { id: string, label?: string, constants: Record<string, number | string | boolean> }
+  engineVersion: string
+  ranBy: string
+  ranAt: string | Date
+  resultVersion: number
+  approval: { state: ApprovalState, by?: string, at?: string | Date }
+  exportedBy?: string
+  exportedAt?: string | Date
+}
+
+/** The observable, for headers and captions. */
+export interface ExportObservable {
+  /** Plain text name ("dσ/dM"). */
+  name: string
+  /** Unit of the values ("pb/GeV"); omit when dimensionless. */
+  unit?: string
+  /** The name as LaTeX math, without dollars ("\\mathrm{d}\\sigma/\\mathrm{d}M"); else `name` is escaped. */
+  latex?: string
+}
+
+/**
+ * One prescription's band over the bins. `plus` and `minus` are magnitudes (ΔX⁺, ΔX⁻ ≥ 0), each
+ * array with one entry per bin, in bin order.
+ */
+export interface ExportBand {
+  /** Short id used in CSV headers and JSON keys ("hessian-asym"). */
+  id: string
+  /** What a reader sees ("Hessian, asymmetric"). */
+  label: string
+  central: ArrayLike<number>
+  plus: ArrayLike<number>
+  minus: ArrayLike<number>
+}
+
+/** A result version ready to export: the bins, their kinematics and one band per prescription. */
+export interface ResultForExport {
+  provenance: ExportProvenance
+  observable: ExportObservable
+  /** Kinematic columns of the bins, in display order. */
+  binColumns: BinColumn[]
+  bins: BinRow[]
+  /** At least one band. */
+  bands: ExportBand[]
+}
+
+/** A bin-to-bin matrix (covariance in unit², or correlation) of one result. */
+export interface MatrixForExport {
+  provenance: ExportProvenance
+  observable: ExportObservable
+  kind: 'covariance' | 'correlation'
+  /** Row-major n × n values, n = number of bins. */
+  values: ArrayLike<ArrayLike<number>>
+  /** One label per bin; default "bin 1" … */
+  labels?: string[]
+}

@@ -1,0 +1,65 @@
+// @vitest-environment happy-dom
+import { flushPromises, mount } from '@vue/test-utils'
+import { beforeEach, describe, expect, it, vi } from 'vitest'
+
+// Plotly itself needs a real browser (the browser tests draw it); here a recorder stands in.
+const plotly = vi.hoisted(() => ({
+  react: vi.fn(async (el: HTMLElement) => Object.assign(el, { on: vi.fn() })),
+  purge: vi.fn(),
+  downloadImage: vi.fn(async () => ''),
+  toImage: vi.fn(async () => 'data:image/png;base64,AAAA'),
+  Plots: { resize: vi.fn() }
+}))
+vi.mock('plotly.js-dist-min', () => ({ default: plotly }))
+
+const { default: BandPlot } = await import('~/components/plots/BandPlot.vue')
+const { default: CorrelationHeatmap } = await import('~/components/plots/CorrelationHeatmap.vue')
+const { default: DensityPlot } = await import('~/components/plots/DensityPlot.vue')
+
+const series = [{ id: 'a', label: 'A', central: [2, 1], plus: [0.2, 0.1], minus: [0.1, 0.1] }]
+
+describe('plots', () => {
+  beforeEach(() => vi.clearAllMocks())
+
+  it('loads Plotly on mount and draws the figure without the vendor logo, at the given height', async () => {
+    const wrapper = mount(BandPlot, { props: { positions: { lo: [1, 2], hi: [2, 3] }, variable: { label: 'M', unit: 'GeV' }, observable: { label: 'σ', unit: 'pb' }, series, height: 300, filename: 'dy' } })
+    await flushPromises()
+    expect(plotly.react).toHaveBeenCalledTimes(1)
+    const [, data, layout, config] = plotly.react.mock.calls[0] as unknown as [HTMLElement, unknown[], Record<string, unknown>, Record<string, unknown>]
+    expect(data).toHaveLength(2)
+    expect(layout).toMatchObject({ height: 300, font: { family: '"Public Sans", system-ui, sans-serif' } })
+    expect(config).toMatchObject({ displaylogo: false, toImageButtonOptions: { filename: 'dy' } })
+    await wrapper.setProps({ series: [...series, { ...series[0]!, id: 'b', label: 'B' }] })
+    await flushPromises()
+    expect(plotly.react).toHaveBeenCalledTimes(2)
+    wrapper.unmount()
+    expect(plotly.purge).toHaveBeenCalled()
+  })
+
+  it('exports PNG and SVG through the exposed method and the buttons', async () => {
+    const wrapper = mount(BandPlot, { props: { positions: { lo: [1, 2] }, variable: { label: 'x' }, observable: { label: 'y' }, series, filename: 'band' } })
+    await flushPromises()
+    await (wrapper.vm as unknown as { exportImage: (f: 'png' | 'svg') => Promise<void> }).exportImage('svg')
+    expect(plotly.downloadImage).toHaveBeenLastCalledWith(expect.anything(), { format: 'svg', width: 900, height: 600, scale: 1, filename: 'band' })
+    await wrapper.findAll('button').find(b => b.text() === 'PNG')!.trigger('click')
+    expect(plotly.downloadImage).toHaveBeenLastCalledWith(expect.anything(), { format: 'png', width: 900, height: 600, scale: 2, filename: 'band' })
+  })
+
+  it('shows the reason instead of a plot when the inputs do not fit', async () => {
+    const wrapper = mount(CorrelationHeatmap, { props: { matrix: [[1, 0.5], [0.5]] } })
+    await flushPromises()
+    expect(wrapper.find('[role=alert]').text()).toBe('The correlation matrix is not square: row 2 has 1 entries for 2 bins')
+    expect(plotly.react).not.toHaveBeenCalled()
+    const density = mount(DensityPlot, { props: { x: [0.1, 1.2], q2GeV2: 10, curves: [{ id: 'g', label: 'g', central: [1, 1], plus: [0, 0], minus: [0, 0] }] } })
+    await flushPromises()
+    expect(density.find('[role=alert]').text()).toBe('x node 2 is 1.2; densities are plotted for 0 < x < 1')
+  })
+
+  it('draws densities on a log-x axis with the Q² note', async () => {
+    mount(DensityPlot, { props: { x: [1e-3, 0.1], q2GeV2: 100, curves: [{ id: 'g', label: 'g', central: [3, 1], plus: [0.1, 0.1], minus: [0.1, 0.1] }] } })
+    await flushPromises()
+    const layout = plotly.react.mock.calls[0]![2] as unknown as { xaxis: { type: string }, annotations: Array<{ text: string }> }
+    expect(layout.xaxis.type).toBe('log')
+    expect(layout.annotations[0]!.text).toBe('Q² = 100 GeV²')
+  })
+})

@@ -1,0 +1,104 @@
+// @vitest-environment happy-dom
+import { flushPromises, mount } from '@vue/test-utils'
+import { afterEach, describe, expect, it, vi } from 'vitest'
+import SetSummary from '~/components/sets/SetSummary.vue'
+import SetUploadForm from '~/components/sets/SetUploadForm.vue'
+
+/** A stand-in for XMLHttpRequest that answers every POST with `reply`. */
+function fakeXhr(reply: { status: number, body: unknown }) {
+  const sent: FormData[] = []
+  class FakeXhr {
+    status = 0
+    responseText = ''
+    upload: { onprogress: ((e: { lengthComputable: boolean, loaded: number, total: number }) => void) | null } = { onprogress: null }
+    onload: (() => void) | null = null
+    onerror: (() => void) | null = null
+    open(method: string, url: string) { this.url = `${method} ${url}` }
+    url = ''
+    setRequestHeader() {}
+    send(form: FormData) {
+      sent.push(form)
+      this.upload.onprogress?.({ lengthComputable: true, loaded: 5, total: 10 })
+      queueMicrotask(() => {
+        this.status = reply.status
+        this.responseText = JSON.stringify(reply.body)
+        this.onload?.()
+      })
+    }
+  }
+  vi.stubGlobal('XMLHttpRequest', FakeXhr)
+  return sent
+}
+
+async function choose(wrapper: ReturnType<typeof mount>, file: File) {
+  const input = wrapper.find('input[type=file]')
+  Object.defineProperty(input.element, 'files', { value: [file], configurable: true })
+  await input.trigger('change')
+}
+
+describe('SetUploadForm', () => {
+  afterEach(() => vi.unstubAllGlobals())
+
+  it('posts the file with the extra fields and lists the located problems of a refused set', async () => {
+    const sent = fakeXhr({ status: 400, body: { statusCode: 400, statusMessage: 'The set file has 2 problems', data: { issues: [
+      { message: 'value is NaN', member: 3, xIndex: 17, q2Index: 2, flavour: 21 },
+      { message: 'expected a number', line: 12, column: 4 }
+    ] } } })
+    const wrapper = mount(SetUploadForm, { props: { url: '/api/sets', fields: { name: 'mine' } } })
+    await choose(wrapper, new File(['abc'], 'bramble.sheafset'))
+    await wrapper.find('form').trigger('submit')
+    await flushPromises()
+    expect((sent[0]!.get('file') as File).name).toBe('bramble.sheafset')
+    expect(sent[0]!.get('name')).toBe('mine')
+    const alert = wrapper.find('[role=alert]').text()
+    expect(alert).toContain('The set file has 2 problems')
+    expect(alert).toContain('Nothing was stored. 2 problems:')
+    expect(wrapper.findAll('li').map(li => li.text())).toEqual([
+      'member 3 · x node 17 · Q² node 2 · flavour 21: value is NaN',
+      'line 12, column 4: expected a number'
+    ])
+    expect(wrapper.emitted('failed')![0]![0]).toMatchObject({ status: 400, issues: [{ member: 3 }, { line: 12 }] })
+  })
+
+  it('accepts issues given directly as data, and refuses a file over the limit before sending', async () => {
+    const sent = fakeXhr({ status: 422, body: { statusMessage: 'Bad grid', data: [{ message: 'x nodes not increasing', xIndex: 4 }] } })
+    const wrapper = mount(SetUploadForm, { props: { url: '/api/sets', maxBytes: 2 ** 20 } })
+    await choose(wrapper, new File([new Uint8Array(2 ** 20 + 1)], 'big.set'))
+    await wrapper.find('form').trigger('submit')
+    expect(sent).toHaveLength(0)
+    expect(wrapper.find('[role=alert]').text()).toBe('big.set is 1.0 MiB; the limit is 1.0 MiB.')
+    await choose(wrapper, new File(['x'], 'small.set'))
+    await wrapper.find('form').trigger('submit')
+    await flushPromises()
+    expect(wrapper.find('li').text()).toBe('x node 4: x nodes not increasing')
+  })
+
+  it('emits the stored set on success', async () => {
+    fakeXhr({ status: 201, body: { id: 's1', name: 'Bramble-H' } })
+    const wrapper = mount(SetUploadForm, { props: { url: '/api/sets' } })
+    await choose(wrapper, new File(['x'], 'ok.set'))
+    await wrapper.find('form').trigger('submit')
+    await flushPromises()
+    expect(wrapper.emitted('uploaded')![0]).toEqual([{ id: 's1', name: 'Bramble-H' }])
+    expect(wrapper.find('[role=status]').text()).toBe('ok.set was read and stored.')
+  })
+})
+
+describe('SetSummary', () => {
+  const set = {
+    name: 'Bramble-H', version: '1.2', kind: 'hessian-pairs', memberCount: 41, confidenceLevelPercent: 90,
+    xRange: [1e-5, 1] as [number, number], q2RangeGeV2: [1.69, 1e8] as [number, number],
+    target: { type: 'nucleus' as const, z: 26, a: 56 }, addedBy: 'Ana Ruiz', addedAt: '2025-03-01T09:30:00Z'
+  }
+  it('shows kind, members, CL, ranges, target and who added it', () => {
+    const text = mount(SetSummary, { props: { set }, global: { stubs: { NuxtLink: true } } }).text()
+    for (const part of ['Hessian, 20 eigenvector pairs', '41 (central + 40)', '90% as published', '10⁻⁵ to 1', '1.69 to 10⁸ GeV²', 'nucleus Z = 26, A = 56', 'Ana Ruiz on 2025-03-01']) {
+      expect(text).toContain(part)
+    }
+  })
+  it('names replicas by count', () => {
+    const text = mount(SetSummary, { props: { set: { ...set, kind: 'replicas', memberCount: 101, target: { type: 'proton' as const } } }, global: { stubs: { NuxtLink: true } } }).text()
+    expect(text).toContain('Monte Carlo, 100 replicas')
+    expect(text).toContain('proton')
+  })
+})

@@ -1,0 +1,97 @@
+import jStat from 'jstat'
+import { describe, expect, it } from 'vitest'
+import { memberValuesFromRows, type MemberValues } from '../../../../shared/physics/uncertainty/matrix'
+import { createNormalGenerator } from '../../../../shared/physics/uncertainty/prng'
+import { replicaMeanSd, replicaMedianInterval, replicaMoments } from '../../../../shared/physics/uncertainty/replicas'
+import { expectClose } from './tolerance'
+
+describe('mean ± sample standard deviation', () => {
+  it('hand-worked: replicas 1, 2, 3, 4 (member 0 = 100 is ignored)', () => {
+    // mean 2.5; deviations ∓1.5, ∓0.5 → Σd² = 5 → variance 5/3 → sd √(5/3)
+    const band = replicaMeanSd(memberValuesFromRows([[100], [1], [2], [3], [4]]))
+    expectClose(band.central[0]!, 2.5)
+    expectClose(band.plus[0]!, Math.sqrt(5 / 3))
+    expectClose(band.minus[0]!, Math.sqrt(5 / 3))
+    // the same with jstat's sample standard deviation
+    expectClose(band.plus[0]!, jStat.stdev([1, 2, 3, 4], true), 1e-14)
+  })
+
+  it('Welford stays exact with a large common offset (1e9 + small spread)', () => {
+    const { mean, variance } = replicaMoments(memberValuesFromRows([[0], [1e9 + 1], [1e9 + 2], [1e9 + 3]]))
+    expectClose(mean[0]!, 1e9 + 2)
+    expectClose(variance[0]!, 1, 1e-9)
+  })
+
+  it('needs two replicas', () => {
+    expect(() => replicaMeanSd(memberValuesFromRows([[1], [2]]))).toThrow(/at least 3/)
+  })
+})
+
+describe('median and central interval', () => {
+  it.each([
+    // sorted 1 2 3 4: median 2.5, Q(0.16) = 1.48, Q(0.84) = 3.52 (h = 0.48 and 2.52)
+    { replicas: [1, 2, 3, 4], central: 2.5, plus: 1.02, minus: 1.02 },
+    // skewed, sorted 1 2 3 4 10: median 3, Q(0.16) = 1.64, Q(0.84) = 4 + 0.36·6 = 6.16
+    { replicas: [1, 2, 3, 10, 4], central: 3, plus: 3.16, minus: 1.36 }
+  ])('hand-worked 68% interval of $replicas', ({ replicas, central, plus, minus }) => {
+    const band = replicaMedianInterval(memberValuesFromRows([[0], ...replicas.map(v => [v])]))
+    expectClose(band.central[0]!, central, 1e-14)
+    expectClose(band.plus[0]!, plus, 1e-13)
+    expectClose(band.minus[0]!, minus, 1e-13)
+  })
+
+  it('90% coverage uses the 5th and 95th percentiles', () => {
+    // 1..21: Q(0.05) = 1 + 20·0.05 = 2, Q(0.95) = 20, median 11
+    const band = replicaMedianInterval(memberValuesFromRows([[0], ...Array.from({ length: 21 }, (_, i) => [i + 1])]), 90)
+    expectClose([band.central[0]!, band.plus[0]!, band.minus[0]!], [11, 9, 9], 1e-13)
+  })
+
+  it.each([0, 100, -1])('rejects coverage %s', (coverage) => {
+    expect(() => replicaMedianInterval(memberValuesFromRows([[0], [1], [2]]), coverage)).toThrow(RangeError)
+  })
+})
+
+/** N Gaussian replicas of one bin with mean mu and sd sigma, from seed. */
+function gaussianReplicas(n: number, mu: number, sigma: number, seed: number): MemberValues {
+  const z = createNormalGenerator(seed).fill(n)
+  const values = new Float64Array(n + 1)
+  values[0] = mu
+  for (let r = 0; r < n; r++) values[r + 1] = mu + sigma * z[r]!
+  return { members: n + 1, bins: 1, values }
+}
+
+describe('replica statistics converge as 1/√N (fixed seeds)', () => {
+  // For Gaussian replicas the error of the mean has sd σ/√N and the sample sd has sd ≈ σ/√(2N)
+  // (standard sampling theory, e.g. PDG review "Statistics", section on estimators). Over 200
+  // independent batches the RMS error is known to about 1/√(2·200) = 5%, so ±20% is a 4σ margin.
+  const batches = 200
+  const sizes = [25, 100, 400, 1600]
+  const mu = 3
+  const sigma = 0.5
+  const rms = sizes.map((n) => {
+    let meanErr = 0
+    let sdErr = 0
+    for (let k = 0; k < batches; k++) {
+      const band = replicaMeanSd(gaussianReplicas(n, mu, sigma, 1000 * n + k))
+      meanErr += (band.central[0]! - mu) ** 2
+      sdErr += (band.plus[0]! - sigma) ** 2
+    }
+    return { n, mean: Math.sqrt(meanErr / batches), sd: Math.sqrt(sdErr / batches) }
+  })
+
+  it.each(rms)('N = $n: RMS error of the mean ≈ σ/√N and of the sd ≈ σ/√(2N)', ({ n, mean, sd }) => {
+    expect(mean * Math.sqrt(n) / sigma).toBeGreaterThan(0.8)
+    expect(mean * Math.sqrt(n) / sigma).toBeLessThan(1.2)
+    expect(sd * Math.sqrt(2 * n) / sigma).toBeGreaterThan(0.8)
+    expect(sd * Math.sqrt(2 * n) / sigma).toBeLessThan(1.2)
+  })
+
+  it('log-log slope of the mean error against N is −½ within 0.05', () => {
+    const xs = rms.map(r => Math.log(r.n))
+    const ys = rms.map(r => Math.log(r.mean))
+    const xm = jStat.mean(xs)
+    const ym = jStat.mean(ys)
+    const slope = xs.reduce((s, x, i) => s + (x - xm) * (ys[i]! - ym), 0) / xs.reduce((s, x) => s + (x - xm) ** 2, 0)
+    expect(Math.abs(slope + 0.5)).toBeLessThan(0.05)
+  })
+})
