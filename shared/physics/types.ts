@@ -73,6 +73,11 @@ export interface SetHeader {
   provenance: string
   /** Number of members including the central one (member 0). */
   memberCount: number
+  /**
+   * For replica sets only: what member 0 is. 'mean' (the default when absent) — the mean of the
+   * replicas, checked when a set file is read; 'fit' — a separate central fit, not the mean.
+   */
+  replicaCentral?: 'mean' | 'fit'
 }
 
 /** An error set: header plus members, central first. All members share x, q2 and flavours. */

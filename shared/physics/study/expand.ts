@@ -1,0 +1,214 @@
+import type { GridAxes } from '../interpolation/axes'
+import { EDGE_SLACK } from '../interpolation/stencil'
+import { rapidityReach } from '../kernels/kinematics'
+import type { CombineOp } from '../kernels/ratios'
+import type { KernelContext, KernelDefinition, VariableName } from '../kernels/registry'
+import { kernelDefinition, kernelKind } from '../kernels/registry'
+import type { Term } from '../kernels/terms'
+import { gaussLegendreOn } from '../quadrature'
+import type { BinColumn, StudySpec } from './spec'
+
+/**
+ * Expansion of a study into quadrature points: for every bin, the list of LO terms (linear or
+ * bilinear forms at one kinematic point, μ_F scaled by κ) and their quadrature weights, so that
+ * bin value = Σ_i weight_i · term_i. Both the precomputed plan and the direct evaluator start
+ * from this list, so they compute the same sums in different orders.
+ */
+
+/** Grids the study is evaluated on: the main set, and optionally a second set (beam 2 of a pA collision, or the nuclear set of a nuclear ratio). */
+export interface StudyAxes {
+  main: GridAxes
+  second?: GridAxes
+}
+
+/** One bin's points. */
+export interface ExpandedBin {
+  terms: Term[]
+  weights: number[]
+}
+
+/** Where each side of a part's forms takes its densities from. */
+export type DensitySource = 'main' | 'second'
+
+/** One observable of a study (two for a ratio or asymmetry). */
+export interface ExpandedPart {
+  kernel: string
+  kind: 'linear' | 'bilinear'
+  /** Source of beam 1 (or of the only density of a linear form). */
+  source1: DensitySource
+  /** Source of beam 2 (bilinear forms only; equal to source1 for linear ones). */
+  source2: DensitySource
+  bins: ExpandedBin[]
+}
+
+/** A kinematic or reach problem of one bin. */
+export interface ReachIssue {
+  /** 1-based bin row. */
+  bin: number
+  /** 'kinematics': beyond the physical limit (never computable); 'grid': outside the set's nodes (computable with frozen edge values). */
+  kind: 'kinematics' | 'grid'
+  message: string
+}
+
+/** A study expanded into points. */
+export interface ExpandedStudy {
+  parts: ExpandedPart[]
+  /** How two parts combine (composites only). */
+  op?: CombineOp
+  nBins: number
+  /** Problems: points beyond the kinematic limit or outside a grid. */
+  issues: ReachIssue[]
+}
+
+interface Range {
+  lo: number
+  hi: number
+}
+
+function axesRange(a: GridAxes): { x: Range, q2: Range } {
+  return { x: { lo: a.x[0]!, hi: a.x[a.x.length - 1]! }, q2: { lo: a.q2[0]!, hi: a.q2[a.q2.length - 1]! } }
+}
+
+function inside(v: number, r: Range): boolean {
+  return v >= r.lo * (1 - EDGE_SLACK) && v <= r.hi * (1 + EDGE_SLACK)
+}
+
+function fmt(v: number): string {
+  return Number(v.toPrecision(4)).toString()
+}
+
+function outsideMessage(what: string, v: number, r: Range, unit: string, where: string): string {
+  const axis = what.startsWith('x') ? 'x' : 'Q²'
+  const side = v < r.lo ? `below the set's smallest ${axis} node ${fmt(r.lo)}${unit}` : `above the set's largest ${axis} node ${fmt(r.hi)}${unit}`
+  return `${what} = ${fmt(v)}${unit}${where} is ${side}`
+}
+
+function describePoint(point: Partial<Record<VariableName, number>>): string {
+  const parts = Object.entries(point).map(([k, v]) => `${k === 'q2' ? 'Q²' : k === 'm' ? 'M' : k} = ${fmt(v!)}`)
+  return parts.length > 0 ? ` (at ${parts.join(', ')})` : ''
+}
+
+/** Checks a term against the grids; returns a message for the first coordinate outside. */
+function termReach(term: Term, point: Partial<Record<VariableName, number>>, r1: ReturnType<typeof axesRange>, r2: ReturnType<typeof axesRange>): string | null {
+  const where = describePoint(point)
+  if (term.kind === 'linear') {
+    if (!inside(term.x, r1.x)) return outsideMessage('x', term.x, r1.x, '', where)
+    if (!inside(term.mu2GeV2, r1.q2)) return outsideMessage('μ_F²', term.mu2GeV2, r1.q2, ' GeV²', where)
+    return null
+  }
+  if (!inside(term.x1, r1.x)) return outsideMessage('x₁', term.x1, r1.x, '', where)
+  if (!inside(term.x2, r2.x)) return outsideMessage('x₂', term.x2, r2.x, '', where)
+  if (!inside(term.mu2GeV2, r1.q2)) return outsideMessage('μ_F²', term.mu2GeV2, r1.q2, ' GeV²', where)
+  if (!inside(term.mu2GeV2, r2.q2)) return outsideMessage('μ_F²', term.mu2GeV2, r2.q2, ' GeV² (beam-2 set)', where)
+  return null
+}
+
+/** Quadrature points (value, weight) of one variable of one bin. */
+function variableNodes(spec: StudySpec, row: StudySpec['bins'][number], name: VariableName): Array<[number, number]> {
+  const point = row[name as BinColumn]
+  if (point !== undefined) return [[point, 1]]
+  const lo = row[`${name}Min` as BinColumn]!
+  const hi = row[`${name}Max` as BinColumn]!
+  const { nodes, weights } = gaussLegendreOn(spec.quadratureOrder, lo, hi)
+  const scale = spec.rangeMode === 'average' ? 1 / (hi - lo) : 1
+  return Array.from(nodes, (v, i) => [v, weights[i]! * scale] as [number, number])
+}
+
+function expandPart(spec: StudySpec, def: KernelDefinition, options: Record<string, unknown>, useSecond: boolean, axes: StudyAxes, context: KernelContext, issues: Map<number, { kind: 'kinematics' | 'grid', message: string }>): ExpandedPart {
+  const secondAvailable = axes.second !== undefined
+  const kind = kernelKind(def, options)
+  const source1: DensitySource = kind === 'linear' && useSecond && secondAvailable ? 'second' : 'main'
+  const source2: DensitySource = kind === 'linear' ? source1 : (secondAvailable && useSecond ? 'second' : 'main')
+  const a1 = source1 === 'second' ? axes.second! : axes.main
+  const a2 = source2 === 'second' ? axes.second! : axes.main
+  const r1 = axesRange(a1)
+  const r2 = axesRange(a2)
+  const evaluate = def.prepare(options, context)
+  const variables = def.variables(options)
+  const kappa2 = spec.scaleFactor * spec.scaleFactor
+  const bins: ExpandedBin[] = spec.bins.map((row, index) => {
+    const terms: Term[] = []
+    const weights: number[] = []
+    // Tensor product of the variables' quadrature points.
+    let points: Array<[Partial<Record<VariableName, number>>, number]> = [[{}, 1]]
+    for (const v of variables) {
+      const nodes = variableNodes(spec, row, v.name)
+      points = points.flatMap(([p, w]) => nodes.map(([value, wv]) => [{ ...p, [v.name]: value }, w * wv] as [Partial<Record<VariableName, number>>, number]))
+    }
+    for (const [point, weight] of points) {
+      let inner: Array<[Partial<Record<VariableName, number>>, number]> = [[point, weight]]
+      if (def.fullRapidityMass) {
+        const mass = def.fullRapidityMass(options, point)
+        const xLo = Math.max(r1.x.lo, r2.x.lo)
+        const xHi = Math.min(r1.x.hi, r2.x.hi)
+        // The whole rapidity range stops where one x reaches the grid's largest node (the rest,
+        // x > x_max, carries a negligible share); the other x then falls to τ/x_max, which the
+        // grid must reach — otherwise a sizeable part of the integral would be cut away.
+        const tauOverXHi = (mass / def.sqrtS!(options)) ** 2 / xHi
+        if (tauOverXHi < xLo * (1 - EDGE_SLACK) && !issues.has(index)) {
+          issues.set(index, { kind: 'grid', message: `the full rapidity range at M = ${fmt(mass)} GeV needs x down to τ/x_max = ${fmt(tauOverXHi)}, below the set's smallest x node ${fmt(xLo)}` })
+        }
+        const reach = rapidityReach(mass, def.sqrtS!(options), xLo, xHi)
+        if (!reach) {
+          if (!issues.has(index)) issues.set(index, { kind: 'grid', message: `M = ${fmt(mass)} GeV at √s = ${fmt(def.sqrtS!(options))} GeV cannot be produced with both x inside the set's x range [${fmt(xLo)}, ${fmt(xHi)}]` })
+          continue
+        }
+        const { nodes, weights: wy } = gaussLegendreOn(spec.fullRangeOrder, reach[0], reach[1])
+        inner = Array.from(nodes, (y, i) => [{ ...point, y }, weight * wy[i]!] as [Partial<Record<VariableName, number>>, number])
+      }
+      for (const [p, w] of inner) {
+        let term: Term
+        try {
+          term = evaluate(p)
+        } catch (error) {
+          if (!(error instanceof RangeError)) throw error
+          if (!issues.has(index) || issues.get(index)!.kind === 'grid') issues.set(index, { kind: 'kinematics', message: error.message })
+          continue
+        }
+        term = { ...term, mu2GeV2: term.mu2GeV2 * kappa2 }
+        const why = termReach(term, p, r1, r2)
+        if (why && !issues.has(index)) issues.set(index, { kind: 'grid', message: why })
+        terms.push(term)
+        weights.push(w)
+      }
+    }
+    return { terms, weights }
+  })
+  return { kernel: def.id, kind, source1, source2, bins }
+}
+
+/**
+ * Expands a validated study on the given grid axes into weighted LO terms per bin, collecting
+ * (not throwing) the first kinematic or grid-reach problem of each bin. Kernel options must
+ * already be validated (parseStudySpec). RangeError only for missing context (e.g. α_s).
+ * @example expandStudy(spec, { main: set }, {}).parts[0].bins[0].terms.length // 8 for a y range of order 8
+ */
+export function expandStudy(spec: StudySpec, axes: StudyAxes, context: KernelContext = {}): ExpandedStudy {
+  const def = kernelDefinition(spec.kernel)
+  const issues = new Map<number, { kind: 'kinematics' | 'grid', message: string }>()
+  let parts: ExpandedPart[]
+  let op: CombineOp | undefined
+  if (def.composite) {
+    op = def.op
+    parts = def.parts(spec.options).map(p => expandPart(spec, kernelDefinition(p.kernel) as KernelDefinition, p.options, p.useSecond, axes, context, issues))
+  } else {
+    // A plain hadron–hadron kernel takes beam 2 from the second set when one is given.
+    parts = [expandPart(spec, def, spec.options, kernelKind(def, spec.options) === 'bilinear', axes, context, issues)]
+  }
+  const sorted = [...issues.entries()].sort((a, b) => a[0] - b[0])
+  return {
+    parts,
+    op,
+    nBins: spec.bins.length,
+    issues: sorted.map(([i, { kind, message }]) => ({ bin: i + 1, kind, message: `bin ${i + 1}: ${message}` }))
+  }
+}
+
+/**
+ * The bins of a study that a set cannot reach: points beyond the kinematic limit, or x, x₁, x₂
+ * or μ_F² outside the set's nodes (with the scale factor applied). Empty when all is in reach.
+ * @example checkReach(spec, { main: set }) // [{ bin: 4, message: 'bin 4: x₂ = 3.1e-7 (at M = 20, y = 2.4) is below …' }]
+ */
+export function checkReach(spec: StudySpec, axes: StudyAxes, context: KernelContext = {}): ReachIssue[] {
+  return expandStudy(spec, axes, context).issues
+}

@@ -1,0 +1,24 @@
+/**
+ * Studies: the JSON specification shared by the app, the worker and the CLI, its validation and
+ * reach check, the precomputed evaluation plan (DOMAIN.md §6), direct evaluation for checks,
+ * factorisation-scale variation, and the evaluation benchmark.
+ */
+
+// Specification
+export type { BinColumn, BinRow, StudySpecInput, StudySpec, StudyIssue, StudyCheck } from './spec'
+export { BIN_COLUMNS, binRowSchema, studySpecSchema, StudySpecError, checkStudySpec, parseStudySpec, kernelVariables, resultUnit } from './spec'
+
+// Expansion into quadrature points and reach
+export type { StudyAxes, ExpandedBin, DensitySource, ExpandedPart, ReachIssue, ExpandedStudy } from './expand'
+export { expandStudy, checkReach } from './expand'
+
+// Evaluation
+export type { LinearPlanPart, BilinearPlanPart, PlanPart, Plan, PlanOptions } from './plan'
+export { StudyReachError, buildPlan, evaluatePlan } from './plan'
+export type { SetMembers, DirectOptions } from './direct'
+export { evaluateDirect } from './direct'
+export type { ScaleVariation } from './scale'
+export { scaleVariation } from './scale'
+
+// Benchmark study (timed by shared/cli/bench.ts)
+export { benchmarkSpec } from './benchmark'
