@@ -1,0 +1,43 @@
+/**
+ * The error the input layer throws for a bad document: a RangeError (the engine's policy) that
+ * carries every problem found, each with its JSON path, so a route can answer 400 with `data`.
+ */
+
+/** One problem in a document: where (a JSON path such as `pieces[2].terms[0].a`) and what. */
+export interface InputIssue {
+  path: string
+  message: string
+}
+
+/**
+ * A document was refused. `message` reads "<source>: <path>: <problem>; …" (at most eight
+ * problems spelled out); `issues` has all of them.
+ * @example throw new InputError('fit.json', [{ path: 'pieces[0].terms[0].a', message: 'unknown parameter "a_uw"' }])
+ */
+export class InputError extends RangeError {
+  readonly issues: InputIssue[]
+  readonly source: string
+
+  constructor(source: string, issues: InputIssue[]) {
+    const shown = issues.slice(0, 8).map(i => (i.path ? `${i.path}: ${i.message}` : i.message))
+    const more = issues.length > 8 ? `; and ${issues.length - 8} more` : ''
+    const count = issues.length > 1 ? `${issues.length} problems: ` : ''
+    super(`${source}: ${count}${shown.join('; ')}${more}`)
+    this.name = 'InputError'
+    this.issues = issues
+    this.source = source
+  }
+}
+
+/**
+ * A JSON path in the dotted/bracketed form used in messages.
+ * @example formatPath(['pieces', 2, 'terms', 0, 'a']) // 'pieces[2].terms[0].a'
+ */
+export function formatPath(path: readonly PropertyKey[]): string {
+  let out = ''
+  for (const p of path) {
+    if (typeof p === 'number') out += `[${p}]`
+    else out += out === '' ? String(p) : `.${String(p)}`
+  }
+  return out
+}

@@ -1,0 +1,34 @@
+/**
+ * Parametrised inputs at a starting scale: the JSON documents (parametrised input and nuclear
+ * modification), their validation, compilation into a model, parameter binding with sum rules,
+ * exact Mellin moments and evaluation of x·f on any x grid.
+ */
+
+// Documents: schema, parsing, errors
+export {
+  CoefficientSchema, GridSpecSchema, MembersSpecSchema, NuclearModificationSchema, ParametrisedInputSchema,
+  PieceSchema, TermSchema,
+  type GridSpec, type MembersSpec, type NuclearModificationDoc, type ParametrisedInputDoc, type PieceDoc, type TermDoc
+} from './schema'
+export { parseInputDocument, parseInputText, type InputDocument } from './parse'
+export { InputError, formatPath, type InputIssue } from './errors'
+
+// Model and parameter binding
+export {
+  compileInput, compileParametrisedInput,
+  type CoefficientRef, type FactorRef, type InputModel, type ModelPiece, type SumRuleTargets
+} from './model'
+export { bindParameters, type BoundInput, type BoundPiece } from './bind'
+
+// Moments and evaluation
+export { multiplyTerms, termMoment, termMomentComplex, termXf, type NumericTerm } from './moments'
+export { evaluateXf, flavourMoments, flavourMomentsComplex, minimumXf, sumRuleIntegrals } from './evaluate'
+
+// Flavour slots
+export { EVOLVED_FLAVOURS, GLUON_SLOT, N_SLOTS, partonName, quarkSlots, slotOf } from './flavours'
+
+// Special functions and complex arithmetic
+export {
+  EULER_GAMMA, beta, betaComplex, digammaComplex, harmonicS1, lnBeta, lnGamma, lnGammaComplex
+} from './special-functions'
+export { cAdd, cDiv, cExp, cInv, cLog, cMul, cScale, cSqrt, cSub, complex, type Complex } from './complex'

@@ -1,0 +1,62 @@
+import { readFileSync } from 'node:fs'
+import { describe, expect, it } from 'vitest'
+import { evolveModel, planForModel } from '~/shared/physics/evolution/build-set'
+import { thresholdPairs } from '~/shared/physics/evolution/q2-grid'
+import { createEvolutionPlan, evolveMember } from '~/shared/physics/evolution/xspace'
+import { slotOf } from '~/shared/physics/input/flavours'
+import { compileInput } from '~/shared/physics/input/model'
+import { parseInputText } from '~/shared/physics/input/parse'
+import type { MemberGrid } from '~/shared/physics/types'
+
+const load = (f: string) => parseInputText(readFileSync(`samples/fits/${f}`, 'utf8'), f)
+const quillon = compileInput(load('quillon-22.json'))
+const at = (g: MemberGrid, iq: number, ix: number, pdg: number) => g.values[(iq * g.x.length + ix) * g.flavours.length + g.flavours.indexOf(pdg)]!
+
+describe('heavy quarks in the variable-flavour scheme (DOMAIN.md §2: start at zero at μ² = m_h²)', () => {
+  const plan = planForModel(quillon, { x: { count: 60, min: 1e-5, max: 0.95 }, q2: { count: 30, maxGeV2: 1e6 } })
+  const grid = evolveModel(quillon, plan)
+  const pairs = thresholdPairs(grid.q2)
+
+  it('has the charm (1.96), bottom (22.5625) and top (29756.25) thresholds as below/above node pairs', () => {
+    expect(pairs.map(p => p.q2GeV2)).toEqual([1.4 ** 2, 4.75 ** 2, 172.5 ** 2])
+    expect(grid.flavours).toEqual([-6, -5, -4, -3, -2, -1, 1, 2, 3, 4, 5, 6, 21])
+  })
+
+  it.each([[4, 0], [5, 1], [6, 2]])('quark %i and its antiquark are exactly zero up to and at its threshold, positive just above', (pdg, pair) => {
+    const { index } = pairs[pair]!
+    for (let iq = 0; iq <= index + 1; iq++) {
+      for (let ix = 0; ix < grid.x.length; ix++) {
+        expect(at(grid, iq, ix, pdg)).toBe(0)
+        expect(at(grid, iq, ix, -pdg)).toBe(0)
+      }
+    }
+    for (let ix = 0; ix < grid.x.length - 1; ix++) expect(at(grid, index + 2, ix, pdg)).toBeGreaterThan(0)
+  })
+
+  it('is continuous across each threshold at LO: below and above values coincide for every flavour (to rounding)', () => {
+    for (const { index } of pairs) {
+      for (let k = 0; k < grid.x.length * 13; k++) {
+        const below = grid.values[index * grid.x.length * 13 + k]!
+        const above = grid.values[(index + 1) * grid.x.length * 13 + k]!
+        expect(Math.abs(above - below)).toBeLessThanOrEqual(1e-12 * Math.abs(below) + 1e-16)
+      }
+    }
+  })
+
+  it('keeps the b quark at zero everywhere with fixed n_f = 4, while charm evolves from zero', () => {
+    const fixed = createEvolutionPlan({ startScaleGeV2: 2, alphas: quillon.alphas, scheme: { ...quillon.scheme, type: 'fixed', nf: 4 }, x: { count: 40, min: 1e-4, max: 0.9 }, q2: { count: 8, maxGeV2: 1e6 } })
+    const x0 = new Float64Array(40 * 13)
+    for (let ix = 0; ix < 40; ix++) { x0[ix * 13 + slotOf(21)] = 1; x0[ix * 13 + slotOf(2)] = 0.5 }
+    const g = evolveMember(fixed, x0)
+    expect(g.q2.length).toBe(8)
+    for (let iq = 0; iq < 8; iq++) { expect(at(g, iq, 5, 5)).toBe(0); expect(at(g, iq, 5, 6)).toBe(0) }
+    expect(at(g, 7, 5, 4)).toBeGreaterThan(0)
+  })
+
+  it('refuses a non-zero input for a flavour that is not active at μ₀²', () => {
+    const p = createEvolutionPlan({ startScaleGeV2: 1.69, alphas: quillon.alphas, scheme: quillon.scheme, x: { count: 20, min: 1e-3, max: 0.9 }, q2: { count: 5, maxGeV2: 100 } })
+    const x0 = new Float64Array(20 * 13)
+    x0[3 * 13 + slotOf(4)] = 0.01
+    expect(() => evolveMember(p, x0)).toThrow(/flavour c is not active at μ₀² = 1\.69 GeV²/)
+  })
+})
