@@ -21,17 +21,18 @@ const server = new SMTPServer({
     stream.on('data', (c: Buffer) => chunks.push(c))
     stream.on('error', callback)
     stream.on('end', () => {
-      const raw = Buffer.concat(chunks).toString('utf8')
-      const mail = parseMail(raw)
-      const envelopeTo = session.envelope.rcptTo.map(r => r.address.toLowerCase())
-      const envelopeFrom = session.envelope.mailFrom ? session.envelope.mailFrom.address : mail.from
-      db.insert(tables.mailOutbox).values({
-        mailFrom: envelopeFrom || mail.from,
-        mailTo: envelopeTo.length ? envelopeTo : mail.to,
-        subject: mail.subject,
-        textBody: mail.text,
-        htmlBody: mail.html,
-        raw
+      const bytes = Buffer.concat(chunks)
+      parseMail(bytes).then((mail) => {
+        const envelopeTo = session.envelope.rcptTo.map(r => r.address.toLowerCase())
+        const envelopeFrom = session.envelope.mailFrom ? session.envelope.mailFrom.address : mail.from
+        return db.insert(tables.mailOutbox).values({
+          mailFrom: envelopeFrom || mail.from,
+          mailTo: envelopeTo.length ? envelopeTo : mail.to,
+          subject: mail.subject,
+          textBody: mail.text,
+          htmlBody: mail.html,
+          raw: bytes.toString('utf8')
+        })
       }).then(() => callback(), (err: Error) => callback(err))
     })
   }

@@ -1,11 +1,16 @@
 /**
- * A small RFC 4180 reader and writer. The reader sits behind the {@link CsvReader} interface so
- * that a well-known parser can replace it without touching the callers.
+ * CSV reading and writing. The reader sits behind the {@link CsvReader} interface; its parsing is
+ * done by papaparse, and this module adds what papaparse leaves out: the physical line of every
+ * record, located problems with messages a physicist understands, and line ends of more than one
+ * kind in one file.
  *
  * Accepted beyond RFC 4180 (common practice for files written by spreadsheets): LF or lone CR
- * line ends as well as CRLF, a leading byte-order mark, blank lines (skipped), and optionally
- * comment lines starting with `#` (skipped only at the start of a record).
+ * line ends as well as CRLF, a leading byte-order mark, blank lines (skipped), spaces between a
+ * closing quote and the next delimiter, and optionally comment lines starting with `#` (skipped
+ * only at the start of a record).
  */
+import Papa from 'papaparse'
+import type { ParseError } from 'papaparse'
 
 /** One record and the 1-based physical line on which it starts. */
 export interface CsvRecord {
@@ -37,103 +42,141 @@ export interface CsvReadResult {
 /** The interface every CSV reader used by Sheaf implements. */
 export type CsvReader = (text: string, options?: CsvReadOptions) => CsvReadResult
 
+const STRAY_QUOTE = 'quote inside an unquoted field; quote the whole field and double the quote'
+const NEVER_CLOSED = 'quoted field is never closed'
+
+/** Start offset of every line of `text` (line ends are '\n' only), for offset → line, column. */
+function lineStarts(text: string): number[] {
+  const starts = [0]
+  for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) starts.push(i + 1)
+  return starts
+}
+
+/** 1-based line and column of `offset`, by bisection over `starts`. */
+function locate(starts: readonly number[], offset: number): { line: number, column: number } {
+  let lo = 0
+  let hi = starts.length - 1
+  while (lo < hi) {
+    const mid = (lo + hi + 1) >> 1
+    if (starts[mid]! <= offset) lo = mid
+    else hi = mid - 1
+  }
+  return { line: lo + 1, column: offset - starts[lo]! + 1 }
+}
+
 /**
- * Reads RFC 4180 text. Quoted fields may hold the delimiter, `""` for a quote, and line breaks.
- * A quote inside an unquoted field, text after a closing quote, and a quote never closed are
- * problems; after one, reading resumes at the next line.
+ * Reads RFC 4180 text. Quoted fields may hold the delimiter, `""` for a quote, and line breaks
+ * (returned as they are in the file). A quote inside an unquoted field, text after a closing
+ * quote, and a quote never closed are problems; after one, reading resumes at the next line.
+ *
+ * Method: papaparse reads the text with every line end made '\n' (papaparse takes one kind of
+ * line end per file); each row papaparse returns is then walked field by field from the row's
+ * start, which gives its line, finds quotes papaparse accepts inside unquoted fields, and puts
+ * back the file's own line ends inside quoted fields. After a problem papaparse starts again at
+ * the next line. Papaparse's Delimiter and FieldMismatch errors cannot arise here (the delimiter
+ * is given and there is no header mode; callers check field counts with their own messages).
  *
  * @example readCsv('a,"b ""c"""\r\n1,2').records // → [{ fields: ['a', 'b "c"'], line: 1 }, { fields: ['1', '2'], line: 2 }]
  */
 export const readCsv: CsvReader = (text, options = {}) => {
   const delimiter = options.delimiter ?? ','
-  const comment = options.comment
+  const comment = options.comment || undefined
   const maxProblems = options.maxProblems ?? 50
-  if (delimiter.length !== 1 || delimiter === '"' || delimiter === '\n' || delimiter === '\r') {
+  if (delimiter.length !== 1 || delimiter === '"' || delimiter === '\n' || delimiter === '\r' || delimiter === '\uFEFF') {
     throw new RangeError(`CSV delimiter must be one character other than a quote or a line break, got '${delimiter}'`)
   }
+  if (comment !== undefined && (comment === delimiter || /["\r\n]/.test(comment))) {
+    throw new RangeError(`CSV comment marker must differ from the delimiter and hold no quote or line break, got '${comment}'`)
+  }
   const src = text.charCodeAt(0) === 0xfeff ? text.slice(1) : text
+  const flat = src.includes('\r') ? src.replace(/\r\n?/g, '\n') : src
+  /** The file's own line ends, in order, where some are not '\n'. */
+  const lineEnds = flat === src ? null : src.match(/\r\n|\r|\n/g)!
+  const starts = lineStarts(flat)
+  const n = flat.length
   const records: CsvRecord[] = []
   const problems: CsvProblem[] = []
-  let i = 0
-  let line = 1
-  let lineStart = 0
-  const n = src.length
 
-  const isEol = (c: string | undefined) => c === '\n' || c === '\r'
-  /** Consumes one line end at i (CRLF, LF or CR). */
-  const eatEol = () => {
-    if (src[i] === '\r' && src[i + 1] === '\n') i += 2
-    else i += 1
-    line += 1
-    lineStart = i
+  const nextLine = (offset: number) => {
+    const eol = flat.indexOf('\n', offset)
+    return eol < 0 ? n : eol + 1
   }
-  const skipToNextLine = () => {
-    while (i < n && !isEol(src[i])) i++
-    if (i < n) eatEol()
+  const skipComments = (offset: number) => {
+    let at = offset
+    while (comment !== undefined && at < n && flat.startsWith(comment, at)) at = nextLine(at)
+    return at
   }
-
-  while (i < n && problems.length < maxProblems) {
-    if (isEol(src[i])) { eatEol(); continue } // blank line
-    if (comment && src.startsWith(comment, i)) { skipToNextLine(); continue }
-    const recordLine = line
-    const fields: string[] = []
-    let bad = false
-    for (;;) {
-      // one field starting at i
-      if (src[i] === '"') {
-        const openLine = line
-        const openColumn = i - lineStart + 1
-        i++
-        let value = ''
-        let closed = false
-        while (i < n) {
-          const c = src[i]!
-          if (c === '"') {
-            if (src[i + 1] === '"') { value += '"'; i += 2; continue }
-            i++
-            closed = true
-            break
-          }
-          if (c === '\r' || c === '\n') {
-            value += c === '\r' && src[i + 1] === '\n' ? '\r\n' : c
-            eatEol()
-            continue
-          }
-          value += c
-          i++
-        }
-        if (!closed) {
-          problems.push({ line: openLine, column: openColumn, message: 'quoted field is never closed' })
-          bad = true
-          break
-        }
-        if (i < n && src[i] !== delimiter && !isEol(src[i])) {
-          problems.push({ line, column: i - lineStart + 1, message: `unexpected '${src[i]}' after a closing quote; a quoted field must end at a '${delimiter}' or a line end` })
-          bad = true
-          break
-        }
-        fields.push(value)
+  /** The record's fields with the k-th line break in them put back as the file wrote it. */
+  const ownLineEnds = (fields: string[], line: number) => {
+    if (!lineEnds) return fields
+    let k = line - 1 // lineEnds[line - 1] ends the record's first line
+    return fields.map(f => (f.includes('\n') ? f.replace(/\n/g, () => lineEnds[k++]!) : f))
+  }
+  /** The first problem of a row starting at `start`: where it is, what it is, where to resume. */
+  const rowProblem = (start: number, base: number, fields: readonly string[], error: ParseError | undefined) => {
+    // Papaparse reports quote errors just after the opening quote of the field.
+    const open = error?.index === undefined ? n : base + error.index - 1
+    let at = start
+    for (const value of fields) {
+      if (at >= open) break
+      if (flat[at] === '"') {
+        at += value.length + (value.split('"').length - 1) + 2
+        while (at < n && flat[at] !== delimiter && flat[at] !== '\n') at++ // spaces papaparse allows
       }
       else {
-        const start = i
-        while (i < n && src[i] !== delimiter && !isEol(src[i])) {
-          if (src[i] === '"') break
-          i++
-        }
-        if (src[i] === '"') {
-          problems.push({ line, column: i - lineStart + 1, message: 'quote inside an unquoted field; quote the whole field and double the quote' })
-          bad = true
-          break
-        }
-        fields.push(src.slice(start, i))
+        const quote = value.indexOf('"')
+        if (quote >= 0) return { at: at + quote, message: STRAY_QUOTE, resume: nextLine(at + quote) }
+        at += value.length
       }
-      if (i < n && src[i] === delimiter) { i++; continue }
-      break // line end or end of text
+      at++
     }
-    if (bad) { skipToNextLine(); continue }
-    records.push({ fields, line: recordLine })
-    if (i < n) eatEol()
+    if (!error) return undefined
+    if (error.code === 'MissingQuotes') return { at: open, message: NEVER_CLOSED, resume: n }
+    if (error.code === 'InvalidQuotes') {
+      let close = flat.indexOf('"', open + 1)
+      while (flat[close + 1] === '"') close = flat.indexOf('"', close + 2)
+      const after = close + 1
+      return {
+        at: after,
+        message: `unexpected '${flat[after]}' after a closing quote; a quoted field must end at a '${delimiter}' or a line end`,
+        resume: nextLine(after)
+      }
+    }
+    return { at: start, message: error.message, resume: nextLine(start) }
   }
+
+  /** Reads from `from` until the first problem; returns where to read on. */
+  const readFrom = (from: number) => {
+    // Papaparse drops a byte-order mark at the start of its input; offsets count from after it.
+    const base = from + (flat.charCodeAt(from) === 0xfeff ? 1 : 0)
+    let rowEnd = base
+    let resume = n
+    Papa.parse<string[]>(flat.slice(from), {
+      delimiter,
+      newline: '\n',
+      quoteChar: '"',
+      escapeChar: '"',
+      comments: comment ?? false,
+      skipEmptyLines: false,
+      step: (result, parser) => {
+        const start = skipComments(rowEnd)
+        rowEnd = base + result.meta.cursor
+        const problem = rowProblem(start, base, result.data, result.errors[0])
+        if (problem) {
+          problems.push({ ...locate(starts, problem.at), message: problem.message })
+          resume = problem.resume
+          parser.abort()
+          return
+        }
+        if (start >= n || flat[start] === '\n') return // blank line
+        const { line } = locate(starts, start)
+        records.push({ fields: ownLineEnds(result.data, line), line })
+      }
+    })
+    return resume
+  }
+
+  for (let from = 0; from < n && problems.length < maxProblems;) from = readFrom(from)
   return { records, problems }
 }
 

@@ -15,7 +15,7 @@ describe('mail fake MIME decoding', () => {
     const link = `http://127.0.0.1:3000/invitations/${'x'.repeat(43)}`
     const content = invitationMail('Zoë Ångström', 'Müon Collaboration — forward group', 'analyst', link)
     const raw = await compose({ from: 'Sheaf <no-reply@sheaf.invalid>', to: 'Friend <Friend@Example.test>', ...content })
-    const mail = parseMail(raw)
+    const mail = await parseMail(raw)
     expect(mail.subject).toBe(content.subject)
     expect(mail.from).toBe('no-reply@sheaf.invalid')
     expect(mail.to).toEqual(['friend@example.test'])
@@ -26,7 +26,7 @@ describe('mail fake MIME decoding', () => {
 
   it('reads a plain single-part message', async () => {
     const raw = await compose({ from: 'a@x.test', to: 'b@x.test, c@x.test', subject: 'Hi', text: 'plain body' })
-    expect(parseMail(raw)).toMatchObject({ subject: 'Hi', to: ['b@x.test', 'c@x.test'], text: 'plain body', html: null })
+    expect(await parseMail(raw)).toMatchObject({ subject: 'Hi', to: ['b@x.test', 'c@x.test'], text: 'plain body', html: null })
   })
 
   it('decodes RFC 2047 encoded words and RFC 2045 quoted-printable', () => {
