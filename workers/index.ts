@@ -4,6 +4,9 @@ import { type Job, Worker } from 'bullmq'
 import IORedis from 'ioredis'
 import { createDB } from '../server/database/client'
 import { JOB_KINDS, QUEUES } from '../shared/queue/names'
+import { BUILD_SET_QUEUE, RUN_STUDY_QUEUE } from '../shared/queue/workflow'
+import { buildSetJob } from './jobs/build-set'
+import { runStudyJob } from './jobs/run-study'
 import { runSquare } from './jobs/square'
 
 const databaseUrl = process.env.DATABASE_URL
@@ -23,7 +26,9 @@ const workers = [
     const handler = demoHandlers[job.name]
     if (!handler) throw new Error(`No handler for job kind ${job.name}`)
     return handler(job)
-  }, { connection, concurrency: 2 })
+  }, { connection, concurrency: 2 }),
+  new Worker(RUN_STUDY_QUEUE, job => runStudyJob(db, job), { connection, concurrency: 2 }),
+  new Worker(BUILD_SET_QUEUE, job => buildSetJob(db, job), { connection, concurrency: 1 })
 ]
 
 for (const w of workers) {

@@ -168,3 +168,4 @@ export type AuditEvent = typeof auditEvents.$inferSelect
 export type NewAuditEvent = typeof auditEvents.$inferInsert
 export type Job = typeof jobs.$inferSelect
 export type NewJob = typeof jobs.$inferInsert
+export * from './workflow-schema'

@@ -1,0 +1,30 @@
+import { prescriptionsFor } from '../../../../../../shared/physics/uncertainty/bands'
+
+// x·f(x, Q²) of chosen flavours (?flavours=21,2,-2,uv …) at ?q2= with the set's band
+// (?prescription=, default by kind; ?cl=, default 68), on ?points= log-spaced x values, and with
+// ?ratioTo=<set id> the band divided by that set's central member.
+export default defineEventHandler(async (event) => {
+  const user = requireUser(event)
+  const workspaceId = uuidParam(event, 'wid', 'Workspace')
+  const setId = uuidParam(event, 'sid', 'Error set')
+  const query = queryValid(event, densitiesQuerySchema)
+  const { set: row } = await requireSet(workspaceId, setId, user.id, 'viewer')
+  const reference = query.ratioTo ? (await requireSet(workspaceId, query.ratioTo, user.id, 'viewer')).set : null
+  assertQ2Inside(query.q2, Math.max(row.q2Min, reference?.q2Min ?? 0), Math.min(row.q2Max, reference?.q2Max ?? Infinity))
+  const prescription = setPrescription(row.kind, query.prescription)
+  const clPercent = query.cl ?? 68
+  const x = logSpacedX(Math.max(row.xMin, reference?.xMin ?? 0), Math.min(row.xMax, reference?.xMax ?? 1), query.points)
+  const db = useDB()
+  const set = await loadErrorSet(db, row.id)
+  const ref = reference ? await loadErrorSet(db, reference.id) : undefined
+  try {
+    return {
+      setId: row.id, q2GeV2: query.q2, prescription, clPercent, available: prescriptionsFor(row.kind),
+      ratioTo: reference ? { id: reference.id, name: reference.name, version: reference.version } : null,
+      x: Array.from(x),
+      flavours: densityBands(set, { q2GeV2: query.q2, flavours: query.flavours, x, prescription, clPercent }, ref)
+    }
+  } catch (err) {
+    throw engineRejection(err, 'The densities cannot be evaluated')
+  }
+})

@@ -1,0 +1,70 @@
+import { and, desc, eq, inArray } from 'drizzle-orm'
+import { tables as t } from '../../database/client'
+import type { Result, ReviewState } from '../../database/workflow-schema'
+import type { SessionUser } from '../auth'
+import { reviewStepMail, studyPagePath } from './mail-texts'
+import type { SpecSnapshot } from './result-versions'
+
+type Action = 'submitted' | 'approved' | 'returned'
+
+// Which review state each step starts from and leads to.
+const STEPS: Record<Action, { from: ReviewState[], to: ReviewState }> = {
+  submitted: { from: ['draft', 'returned'], to: 'submitted' },
+  approved: { from: ['submitted'], to: 'approved' },
+  returned: { from: ['submitted'], to: 'returned' }
+}
+
+function refusal(r: Result, action: Action) {
+  if (r.reviewState === 'approved') return `Version ${r.version} is approved and frozen`
+  if (action === 'submitted') return `Version ${r.version} is already submitted for review`
+  return `Version ${r.version} is not submitted for review (it is ${r.reviewState})`
+}
+
+/**
+ * One review step on a finished result: submit (draft/returned → submitted), approve or return
+ * (submitted → approved/returned). The state changes only from the expected one (409 otherwise,
+ * also when two reviewers race); the step, its comment and an audit event are written in one
+ * transaction; then the e-mails go out (owners on submit, the submitter on a decision).
+ */
+export async function reviewStep(r: Result, workspaceId: string, actor: SessionUser, action: Action, comment: string) {
+  if (r.state !== 'done') throw createError({ statusCode: 409, statusMessage: 'Only a finished result can be reviewed' })
+  const step = STEPS[action]
+  if (!step.from.includes(r.reviewState)) throw createError({ statusCode: 409, statusMessage: refusal(r, action) })
+  const db = useDB()
+  const updated = await db.transaction(async (tx) => {
+    const [row] = await tx.update(t.results).set({ reviewState: step.to })
+      .where(and(eq(t.results.id, r.id), inArray(t.results.reviewState, step.from))).returning()
+    if (!row) throw createError({ statusCode: 409, statusMessage: refusal(r, action) })
+    await tx.insert(t.resultReviews).values({ resultId: r.id, action, comment, actorId: actor.id })
+    await audit({ workspaceId, actorId: actor.id, action: `result.${action}`, subjectType: 'result', subjectId: r.id, detail: { version: r.version, comment } }, tx)
+    return row
+  })
+  await mailReviewStep(updated, workspaceId, actor, action, comment)
+  return updated
+}
+
+async function mailReviewStep(r: Result, workspaceId: string, actor: SessionUser, action: Action, comment: string) {
+  const db = useDB()
+  let recipients: string[]
+  if (action === 'submitted') {
+    const owners = await db.select({ email: t.users.email }).from(t.memberships)
+      .innerJoin(t.users, eq(t.users.id, t.memberships.userId))
+      .where(and(eq(t.memberships.workspaceId, workspaceId), eq(t.memberships.role, 'owner')))
+    recipients = owners.map(o => o.email)
+  } else {
+    const [submit] = await db.select({ email: t.users.email }).from(t.resultReviews)
+      .innerJoin(t.users, eq(t.users.id, t.resultReviews.actorId))
+      .where(and(eq(t.resultReviews.resultId, r.id), eq(t.resultReviews.action, 'submitted')))
+      .orderBy(desc(t.resultReviews.createdAt)).limit(1)
+    recipients = submit ? [submit.email] : []
+  }
+  const snap = r.specSnapshot as SpecSnapshot
+  const content = reviewStepMail({
+    action, actorName: actor.name, studyName: snap.studyName, setName: snap.set.name, version: r.version, comment,
+    link: appLink(studyPagePath(r.studyId, r.id))
+  })
+  for (const to of new Set(recipients.filter(e => e !== actor.email))) {
+    // The step is recorded already; a relay failure must not undo it.
+    await sendMail(to, content).catch(err => console.error('[review mail]', (err as Error).message))
+  }
+}
