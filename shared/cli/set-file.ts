@@ -2,7 +2,8 @@
  * Reading and writing error-set files for the command line: the engine parses and serialises,
  * this module adds the file name to its located messages.
  */
-import { MZ_GEV, makeAlphas } from '../physics/alphas'
+import { makeAlphas } from '../physics/alphas'
+import { MZ_GEV } from '../physics/constants'
 import { parseSetFile, writeSetFile } from '../physics/sets'
 import type { ErrorSet, SetHeader } from '../physics/types'
 import { BadInputError } from './errors'

@@ -4,7 +4,7 @@
  * `{ kind, clPercent, values }`.
  */
 import { z, type ZodError } from 'zod'
-import { formatPath } from '../physics/input/errors'
+import { formatPath } from '../physics/json-path'
 import { memberValuesFromRows, type MemberValues } from '../physics/uncertainty'
 import type { SetKind } from '../physics/types'
 import { BadInputError } from './errors'

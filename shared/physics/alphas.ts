@@ -8,10 +8,9 @@
 import type { FlavourScheme } from './types'
 
 /**
- * Z-boson mass in GeV, PDG 2024 Review of Particle Physics, gauge-boson summary table
- * (91.1880 ± 0.0020 GeV; value from memory). Only used to quote α_s(M_Z).
+ * M_Z is defined once, in constants.ts; engine code imports it from there. This re-export only
+ * keeps an existing importer outside the engine working (server/utils/workflow/study-check.ts).
  */
-export const MZ_GEV = 91.188
 
 /** A reference value of the coupling: α_s(μ²) = `value` at μ² = `scaleGeV2` (GeV²). */
 export interface AlphasReference {
@@ -24,6 +23,8 @@ export interface AlphasReference {
 /**
  * Relative tolerance within which a scale counts as lying on a heavy-quark threshold, so that
  * e.g. m_c = √2 GeV with μ₀² = 2 GeV² is one scale despite rounding ((√2)² = 2.0000000000000004).
+ * The one engine-wide value: the set-file rules (sets/validate.ts) use it to match a repeated Q²
+ * node to a declared threshold m_h².
  */
 export const THRESHOLD_TOLERANCE = 1e-9
 
@@ -33,12 +34,26 @@ export const THRESHOLD_TOLERANCE = 1e-9
  * @example strictlyBetween(20.25, 2, 1e4) // true; strictlyBetween(2.0000000000000004, 2, 1e4) // false
  */
 export function strictlyBetween(t: number, lo: number, hi: number): boolean {
-  return t > lo * (1 + THRESHOLD_TOLERANCE) && t < hi * (1 - THRESHOLD_TOLERANCE)
+  return t > lo * (1 + THRESHOLD_TOLERANCE) && strictlyBelow(t, hi)
+}
+
+/**
+ * True when the threshold t (GeV²) lies below μ² = `q2` (GeV²) by more than THRESHOLD_TOLERANCE:
+ * evolving up to `q2` from t or from anywhere below it crosses t. A scale on the threshold
+ * (within the tolerance) does not cross it.
+ * @example strictlyBelow(20.25, 1e4) // true; strictlyBelow(20.25, 20.25) // false
+ */
+export function strictlyBelow(t: number, q2: number): boolean {
+  return t < q2 * (1 - THRESHOLD_TOLERANCE)
 }
 
 const atOrAbove = (q2: number, t: number) => q2 >= t * (1 - THRESHOLD_TOLERANCE)
 
-const HEAVY = [
+/**
+ * The heavy quarks of a flavour scheme, lightest first: PDG code (= the n_f above its threshold),
+ * name and key in FlavourScheme.massesGeV.
+ */
+export const HEAVY_QUARKS = [
   { pdg: 4, name: 'charm', key: 'charm' },
   { pdg: 5, name: 'bottom', key: 'bottom' },
   { pdg: 6, name: 'top', key: 'top' }
@@ -70,7 +85,7 @@ export function checkScheme(scheme: FlavourScheme): void {
     throw new RangeError(`flavour scheme nf must be 3, 4, 5 or 6; got ${scheme.nf}`)
   }
   const m = scheme.massesGeV
-  for (const h of HEAVY) {
+  for (const h of HEAVY_QUARKS) {
     const v = m[h.key]
     if (!Number.isFinite(v) || v <= 0) {
       throw new RangeError(`the ${h.name} mass must be a finite number of GeV > 0; got ${v}`)
@@ -90,7 +105,7 @@ export function checkScheme(scheme: FlavourScheme): void {
 export function flavourThresholdsGeV2(scheme: FlavourScheme): number[] {
   checkScheme(scheme)
   if (scheme.type === 'fixed') return []
-  return HEAVY.filter(h => h.pdg <= scheme.nf).map(h => scheme.massesGeV[h.key] ** 2)
+  return HEAVY_QUARKS.filter(h => h.pdg <= scheme.nf).map(h => scheme.massesGeV[h.key] ** 2)
 }
 
 /**

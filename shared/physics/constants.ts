@@ -6,10 +6,13 @@
  * (2024) 030001 ("PDG 2024"): the "Physical constants" table (α, (ħc)², m_p, G_F), the Summary
  * Tables of gauge and Higgs bosons (M_W, Γ_W, M_Z, Γ_Z, M_H), the review "Electroweak model and
  * constraints on new physics" (sin²θ_W) and the review "CKM quark-mixing matrix" (|V_ij|).
- * None of the values could be checked against the PDG text from this machine: every value below
- * is quoted **from memory** of PDG 2024 and is marked so; a reviewer with the book at hand should
- * confirm the last digits. Uncertainties are given beside each value for the reader; the engine
- * uses central values only.
+ * Only some values could be checked from this machine, against stored copies of PDG pages found
+ * with the project's search tool; each such value names its page (title and address) beside it.
+ * Every other value is quoted **from memory** of PDG 2024 and is marked so; a reviewer with the
+ * book at hand should confirm the last digits. (The stored PDG Live pages on the W show other
+ * editions' numbers — W mass "OUR FIT" 80.379 ± 0.012 GeV, node S043M; W width "OUR AVERAGE"
+ * 2.14 ± 0.05 GeV, node S043W — so M_W and Γ_W stay from memory.) Uncertainties are given beside
+ * each value for the reader; the engine uses central values only.
  */
 
 /**
@@ -40,13 +43,16 @@ export const MW_GEV = 80.3692
 export const GAMMA_W_GEV = 2.085
 
 /**
- * Z boson mass in GeV. PDG 2024 Summary Table (Z line-shape fit): 91.1880 ± 0.0020 GeV — from memory.
+ * Z boson mass in GeV: 91.1880 ± 0.0020 GeV, as printed on the stored PDG Live page
+ * "GAUGE AND HIGGS BOSONS — Z" (Z MASS), http://pdglive.lbl.gov/Particle.action?node=S044&init=0
+ * (the page names no edition; these are the PDG 2024 numbers).
  * @example MZ_GEV // 91.188
  */
 export const MZ_GEV = 91.188
 
 /**
- * Z boson total width in GeV. PDG 2024 Summary Table: 2.4955 ± 0.0023 GeV — from memory.
+ * Z boson total width in GeV: 2.4955 ± 0.0023 GeV, as printed on the stored PDG Live page
+ * "GAUGE AND HIGGS BOSONS — Z" (Z WIDTH), http://pdglive.lbl.gov/Particle.action?node=S044&init=0.
  * Used only for comparisons (the Z kernel is narrow-width).
  */
 export const GAMMA_Z_GEV = 2.4955
@@ -73,14 +79,19 @@ export const SIN2_THETA_W_MSBAR = 0.23129
 
 /**
  * Conversion constant (ħc)² in pb·GeV²: a cross-section in GeV⁻² times this is in pb.
- * PDG 2024 physical constants: (ħc)² = 0.389 379 372 1(61) GeV² mbarn — from memory — and
- * 1 mb = 10⁹ pb. DOMAIN.md quotes the rounded 0.3893794 mb GeV².
+ * (ħc)² = 0.389 379 372 1… GeV² mbarn (exact since the 2019 SI), as printed in PDG "1. Physical
+ * Constants", Table 1.1 of the 2022 edition (stored copy "rpp2022-rev-phys-constants",
+ * https://www.scribd.com/document/620895509/rpp2022-rev-phys-constants; the 2024 table was not
+ * seen), and 1 mb = 10⁹ pb. DOMAIN.md quotes the rounded 0.3893794 mb GeV².
  * @example 1e-9 * HBARC2_PB_GEV2 // 0.3893793721 (mb GeV²)
  */
 export const HBARC2_PB_GEV2 = 0.3893793721e9
 
 /**
- * Proton mass in GeV. PDG 2024 physical constants: 0.938 272 088 16(29) GeV — from memory.
+ * Proton mass in GeV: m_p = 938.272 088 16(29) MeV, as printed in PDG "1. Physical Constants",
+ * Table 1.1 of the 2022 edition (stored copy "rpp2022-rev-phys-constants",
+ * https://www.scribd.com/document/620895509/rpp2022-rev-phys-constants; the 2024 table was not
+ * seen).
  */
 export const PROTON_MASS_GEV = 0.93827208816
 

@@ -2,16 +2,16 @@
  * The Sheaf physics engine: error sets, parametrised inputs and fits, LO evolution, LO kernels
  * and studies, uncertainty prescriptions. Pure TypeScript (no Vue, no Nitro, no I/O), shared by
  * the worker, the server routes and the command line. Each group below is a folder with its own
- * index; import from here, or from a folder's index for a narrower dependency.
- *
- * Where two folders export the same name, the explicit re-export under "Names exported twice"
- * says which one this index gives (star re-exports would otherwise drop both).
+ * index; import from here, or from a folder's index for a narrower dependency. Every name is
+ * defined in one module only.
  */
 
-// Core: data types, physical constants (PDG 2024), Gauss–Legendre quadrature
+// Core: data types, physical constants (PDG 2024), Gauss–Legendre quadrature, JSON paths in
+// messages
 export * from './types'
 export * from './constants'
 export * from './quadrature'
+export * from './json-path'
 
 // Sets & interpolation: the set-file format, its parser and writer, TOY sets; (ln x, ln Q²)
 // interpolation of member grids
@@ -36,11 +36,3 @@ export * from './study'
 // Uncertainties: every prescription on member-value matrices, covariances, combinations of
 // sets, χ² against data
 export * from './uncertainty'
-
-// Names exported twice: the engine-wide choice
-/** M_Z in GeV (PDG 2024); alphas.ts holds the same value for quoting α_s(M_Z). */
-export { MZ_GEV } from './constants'
-/** Relative tolerance for a scale on a heavy-quark threshold (alphas.ts; sets/validate.ts repeats it). */
-export { THRESHOLD_TOLERANCE } from './alphas'
-/** Gauss–Legendre rule on [−1, 1] of quadrature.ts; evolution/ keeps its own for the convolutions. */
-export { gaussLegendre } from './quadrature'

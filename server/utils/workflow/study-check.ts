@@ -1,6 +1,7 @@
 // Checks of a study against the engine (structure, kernel, bins) and against the sets it runs
 // on (kinematic reach). No Nitro imports: the worker re-checks a snapshot before running.
-import { makeAlphas, MZ_GEV } from '../../../shared/physics/alphas'
+import { makeAlphas } from '../../../shared/physics/alphas'
+import { MZ_GEV } from '../../../shared/physics/constants'
 import type { KernelContext } from '../../../shared/physics/kernels/registry'
 import { checkReach, type StudyAxes } from '../../../shared/physics/study/expand'
 import { checkStudySpec, type StudyIssue, type StudySpec } from '../../../shared/physics/study/spec'

@@ -63,9 +63,8 @@ export interface EvolvedPoint {
  * @example evolvedPoints(model, [0.1], [100])[0].xf['21'] // x·g(0.1, 100 GeV²)
  */
 export function evolvedPoints(model: InputModel, x: readonly number[], q2GeV2: readonly number[]): EvolvedPoint[] {
-  // μ₀² goes first so that a requested Q² equal to a heavy-quark threshold is an interior node
-  // (doubled, with the flavour switched on at it) rather than the grid's first node.
-  const nodes = [...new Set([model.startScaleGeV2, ...q2GeV2])].sort((a, b) => a - b)
+  // The evolution starts at μ₀² whatever the first node; distinct values in increasing order.
+  const nodes = [...new Set(q2GeV2)].sort((a, b) => a - b)
   const plan = planForModel(model, { q2: { nodesGeV2: nodes } })
   const member = evolveModel(model, plan)
   const nx = plan.x.length
@@ -95,16 +94,13 @@ export function evolvedPoints(model: InputModel, x: readonly number[], q2GeV2: r
  * @example centralSet(model).members.length // 1
  */
 export async function centralSet(model: InputModel): Promise<ErrorSet> {
-  // buildErrorSet wants an error member besides the central one; build the central member
-  // twice and keep one, so the header and provenance stay the engine's.
-  const set = await buildErrorSet(model, {
+  return buildErrorSet(model, {
     type: 'parameters',
     kind: 'hessian-pairs',
     confidenceLevelPercent: 68,
-    vectors: [model.central, model.central],
+    vectors: [model.central],
     description: 'central member only (parameters at their central values), no error members'
   })
-  return { ...set, header: { ...set.header, memberCount: 1 }, members: set.members.slice(0, 1) }
 }
 
 /** Runs `evolve`; returns the exit code. */

@@ -3,16 +3,16 @@
  * (sum rules imposed member by member), evaluated at μ₀² and evolved with one shared evolution
  * plan, so the convolution matrices and step programme are computed once per set.
  */
-import { MZ_GEV, makeAlphas } from '../alphas'
+import { makeAlphas } from '../alphas'
+import { MZ_GEV } from '../constants'
 import { bindParameters } from '../input/bind'
 import { evaluateXf } from '../input/evaluate'
 import type { InputModel } from '../input/model'
 import { hessianMembers } from '../fit/hessian'
 import { replicaParameters } from '../fit/replicas'
-import type { ErrorSet, MemberGrid, SetKind } from '../types'
-import type { Q2GridSpec } from './q2-grid'
-import { createEvolutionPlan, evolveMember, type EvolutionPlan } from './xspace'
-import type { XGridSpec } from './x-grid'
+import { checkMemberCount } from '../sets/validate'
+import type { ErrorSet, MemberGrid, SetHeader, SetKind } from '../types'
+import { createEvolutionPlan, evolveMember, type EvolutionPlan, type EvolutionSetup } from './xspace'
 
 /** How to turn the fit into members. */
 export type MemberRequest =
@@ -20,17 +20,14 @@ export type MemberRequest =
   | { type: 'hessian', tolerance: number, confidenceLevelPercent: number }
   /** Monte-Carlo replicas; member 0 is the mean of the replica grids (kind 'replicas', 1 + N). */
   | { type: 'replicas', count: number, seed: number, confidenceLevelPercent?: number }
-  /** Explicit parameter vectors, central first, for a set of the given kind. */
+  /**
+   * Explicit parameter vectors, central first, for a set of the given kind; one vector gives a
+   * one-member set (the central member alone).
+   */
   | { type: 'parameters', kind: SetKind, confidenceLevelPercent: number, vectors: ArrayLike<number>[], description: string }
 
 /** Grid and numerics of an evolution built from a model (defaults: the model's grid block). */
-export interface ModelEvolutionOptions {
-  x?: XGridSpec
-  q2?: Q2GridSpec
-  interpolationDegree?: number
-  maxStep?: number
-  taylorOrder?: number
-}
+export type ModelEvolutionOptions = Pick<EvolutionSetup, 'x' | 'q2' | 'interpolationDegree' | 'maxStep' | 'taylorOrder'>
 
 /** Options of `buildErrorSet`. */
 export interface BuildSetOptions extends ModelEvolutionOptions {
@@ -75,8 +72,9 @@ export function evolveModel(model: InputModel, plan: EvolutionPlan, params: Arra
  * central member, scheme, target, provenance naming the fit and the engine method).
  *
  * Cost: one plan (matrices ~10–20 ms, cached) plus one evolution per member (see the speed test).
- * @throws RangeError when there is no member request, the fit has no covariance, or a member's
- * parameters fail (divergent sum-rule integral, normalisation ≤ 0); the message names the member.
+ * @throws RangeError when there is no member request, the fit has no covariance, the member count
+ * does not fit the kind (checkMemberCount, before any evolution), or a member's parameters fail
+ * (divergent sum-rule integral, normalisation ≤ 0); the message names the member.
  * @example await buildErrorSet(model, undefined, { onProgress: (d, t) => job.updateProgress(d / t) })
  */
 export async function buildErrorSet(model: InputModel, request?: MemberRequest, options: BuildSetOptions = {}): Promise<ErrorSet> {
@@ -91,7 +89,7 @@ export async function buildErrorSet(model: InputModel, request?: MemberRequest, 
   let description: string
   let cl: number
   if (req.type === 'parameters') {
-    if (req.vectors.length < 2) throw new RangeError('an error set needs the central member and at least one error member')
+    if (req.vectors.length < 1) throw new RangeError('an error set needs at least one parameter vector: the central member')
     vectors = req.vectors
     kind = req.kind
     cl = req.confidenceLevelPercent
@@ -113,6 +111,27 @@ export async function buildErrorSet(model: InputModel, request?: MemberRequest, 
   }
   const plan = planForModel(model, options)
   const total = req.type === 'replicas' ? vectors.length + 1 : vectors.length
+  const alphasMz = makeAlphas(model.alphas, model.scheme)(MZ_GEV * MZ_GEV)
+  const provenance = [
+    `${model.name} ${model.version} (family ${model.family})${model.baseline ? `, nuclear modification of ${model.baseline.name} ${model.baseline.version} at its central values` : ''}`,
+    `members: ${description}`,
+    `engine: Sheaf ${plan.method}`,
+    ...(options.provenance ? [options.provenance] : [])
+  ].join('; ')
+  const header: SetHeader = {
+    name: model.name,
+    family: model.family,
+    version: model.version,
+    kind,
+    confidenceLevelPercent: cl,
+    alphasMzCentral: alphasMz,
+    order: 'LO',
+    scheme: model.scheme,
+    target: model.target,
+    provenance,
+    memberCount: total
+  }
+  checkMemberCount(header)
   const members: Float64Array[] = []
   let done = 0
   for (let k = 0; k < vectors.length; k++) {
@@ -128,27 +147,8 @@ export async function buildErrorSet(model: InputModel, request?: MemberRequest, 
     members.unshift(mean)
     await options.onProgress?.(total, total)
   }
-  const alphasMz = makeAlphas(model.alphas, model.scheme)(MZ_GEV * MZ_GEV)
-  const provenance = [
-    `${model.name} ${model.version} (family ${model.family})${model.baseline ? `, nuclear modification of ${model.baseline.name} ${model.baseline.version} at its central values` : ''}`,
-    `members: ${description}`,
-    `engine: Sheaf ${plan.method}`,
-    ...(options.provenance ? [options.provenance] : [])
-  ].join('; ')
   return {
-    header: {
-      name: model.name,
-      family: model.family,
-      version: model.version,
-      kind,
-      confidenceLevelPercent: cl,
-      alphasMzCentral: alphasMz,
-      order: 'LO',
-      scheme: model.scheme,
-      target: model.target,
-      provenance,
-      memberCount: members.length
-    },
+    header,
     x: Float64Array.from(plan.x),
     q2: Float64Array.from(plan.q2),
     flavours: [...plan.flavours],

@@ -10,7 +10,6 @@ export { DEFAULT_Q2_GRID, q2Nodes, thresholdPairs, type Q2GridSpec, type Thresho
 // Interpolation basis and convolution matrices
 export { closedLogNodes, interpolateLogX, lagrangeBasis, stencilStart } from './lagrange'
 export { convolutionMatrices, type ConvolutionMatrices } from './convolution'
-export { gaussLegendre } from './quadrature'
 
 // Splitting functions and anomalous dimensions
 export { CA, CF, PQQ_DELTA, TR, pggDelta, pgq, pqg } from './splitting'

@@ -24,7 +24,7 @@ import { N_SLOTS } from '../input/flavours'
 import type { FlavourScheme } from '../types'
 import { gammaGG, gammaGQ, gammaQG, gammaQQ } from './anomalous-dimensions'
 import { fromEvolutionBasis, toEvolutionBasis } from './flavour-basis'
-import { gaussLegendre } from './quadrature'
+import { gaussLegendre } from '../quadrature'
 
 /** Scales and scheme of a Mellin-space evolution. */
 export interface MellinSetup {

@@ -29,7 +29,9 @@ export interface ThresholdPair {
  * two ends of each); every interior threshold then appears twice, so the array has
  * `count + (number of interior thresholds)` entries.
  * Explicit form: the nodes as given (strictly increasing, ≥ μ₀²), with each interior threshold
- * inserted (or doubled) as a below/above pair.
+ * inserted (or doubled) as a below/above pair. A threshold at the first or last node is not
+ * doubled (no sub-grid lies beyond it); the evolution still switches the heavy quark on there
+ * when it goes on to higher nodes (xspace.ts).
  * @param startGeV2 μ₀², the evolution's starting scale; no node may lie below it.
  * @throws RangeError for bad counts, a range below μ₀², or unordered nodes.
  * @example q2Nodes({ count: 40, maxGeV2: 1e8 }, 2, vfns) // 42 entries when m_b², m_t² lie inside

@@ -5,7 +5,7 @@
 import { EVOLVED_FLAVOURS, N_SLOTS, quarkSlots } from '../input/flavours'
 import type { MemberGrid } from '../types'
 import { closedLogNodes, lagrangeBasis, stencilStart } from './lagrange'
-import { gaussLegendre } from './quadrature'
+import { gaussLegendre } from '../quadrature'
 
 /**
  * ∫₀¹ F(x) x^{p−1} dx for momentum-density node values F = x·f: p = 1 gives the momentum

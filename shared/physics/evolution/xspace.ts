@@ -17,15 +17,16 @@
  *
  * Accuracy (tests/unit/physics/evolution, against the Mellin-space solution, mellin.ts): about
  * 4e-6 relative for 1e-5 ≤ x ≤ 0.7 on the default grid (100 nodes 1e-6…0.99, degree 7, order 6,
- * h ≤ 0.03), 1e-5 at x = 0.9; degree 5 gives ~5e-5. Speed (tests/unit/physics/evolution/speed):
- * one member on 100 x × 40 Q² nodes in ~15–20 ms of CPU on the project machine (up to ~50 ms wall
- * when its two cores are shared), after a one-off plan of ~40–60 ms (matrices, cached per grid).
+ * h ≤ 0.03), 1e-5 at x = 0.9; degree 5 gives ~5e-5. Speed (tests/unit/physics/evolution/speed,
+ * `npm run bench` (c)): one member on 100 x × 40 Q² nodes in ~13–18 ms once compiled on the
+ * project machine; in a fresh process the first member takes ~30–40 ms (the JIT) after a plan
+ * of ~10–15 ms (matrices, cached per grid).
  */
-import { activeFlavours, betaZero, checkScheme, flavourThresholdsGeV2, makeAlphas, strictlyBetween, type AlphasReference } from '../alphas'
-import { EVOLVED_FLAVOURS, N_SLOTS, partonName } from '../input/flavours'
+import { activeFlavours, betaZero, checkScheme, flavourThresholdsGeV2, makeAlphas, strictlyBelow, strictlyBetween, type AlphasReference } from '../alphas'
+import { EVOLVED_FLAVOURS, GLUON_SLOT, N_SLOTS, partonName, quarkSlots } from '../input/flavours'
 import type { FlavourScheme, MemberGrid } from '../types'
 import { convolutionMatrices, type ConvolutionMatrices } from './convolution'
-import { fromEvolutionBasis, toEvolutionBasis, type EvolutionBasis } from './flavour-basis'
+import { toEvolutionBasis } from './flavour-basis'
 import { DEFAULT_Q2_GRID, q2Nodes, type Q2GridSpec } from './q2-grid'
 import { pggDelta } from './splitting'
 import { DEFAULT_X_GRID, xNodes, type XGridSpec } from './x-grid'
@@ -87,6 +88,8 @@ export function createEvolutionPlan(setup: EvolutionSetup): EvolutionPlan {
   const alphas = makeAlphas(setup.alphas, setup.scheme)
   const thresholds = flavourThresholdsGeV2(setup.scheme).filter(t => strictlyBetween(t, setup.startScaleGeV2, Infinity))
   const nfStart = activeFlavours(setup.startScaleGeV2, setup.scheme)
+  // `thresholds` holds the thresholds not yet switched on, ascending; `current` never passes one
+  // of them, but may sit on it (a node exactly at m_h², whose value is the n_f side below it).
   const ops: Op[] = []
   let nf = nfStart
   let current = setup.startScaleGeV2
@@ -103,7 +106,9 @@ export function createEvolutionPlan(setup: EvolutionSetup): EvolutionPlan {
       ops.push({ kind: 'switch', nf })
       thresholds.shift()
     } else {
-      while (thresholds.length > 0 && strictlyBetween(thresholds[0]!, current, target)) {
+      // Every pending threshold below the target is crossed on the way, including one that the
+      // previous node sits on (leg() is then empty): the heavy quark joins there at zero.
+      while (thresholds.length > 0 && strictlyBelow(thresholds[0]!, target)) {
         const t = thresholds.shift()!
         leg(t)
         nf += 1
@@ -117,10 +122,14 @@ export function createEvolutionPlan(setup: EvolutionSetup): EvolutionPlan {
   return { x, q2, flavours: [...EVOLVED_FLAVOURS], setup, matrices, nfStart, ops, taylorOrder, method }
 }
 
-/** Working state in the evolution basis: NS stack column-major [v·n + k] with Σ last, and g. */
+/**
+ * Working state in the evolution basis: the non-singlet stack column-major [v·n + k] with Σ
+ * last, and g. The T_i sum to zero (Σ_i T_i = Σ − n_f·Σ/n_f), an identity the evolution keeps
+ * because every T_i evolves with the same P_qq, so T_1 is not carried but rebuilt as −Σ_{i>1} T_i.
+ */
 interface State {
   nf: number
-  /** Which basis vectors are carried (V_1..V_nf, T_1..T_nf); zero ones are skipped. */
+  /** Which basis vectors are carried (V_1..V_nf, T_2..T_nf); zero ones are skipped. */
   carried: { type: 'V' | 'T', flavour: number }[]
   stack: Float64Array
   gluon: Float64Array
@@ -132,7 +141,7 @@ function toState(slots: Float64Array[], nf: number, n: number): State {
   const vecs: Float64Array[] = []
   for (let q = 1; q <= nf; q++) {
     if (b.valence[q - 1]!.some(v => v !== 0)) { carried.push({ type: 'V', flavour: q }); vecs.push(b.valence[q - 1]!) }
-    if (b.tplus[q - 1]!.some(v => v !== 0)) { carried.push({ type: 'T', flavour: q }); vecs.push(b.tplus[q - 1]!) }
+    if (q > 1 && b.tplus[q - 1]!.some(v => v !== 0)) { carried.push({ type: 'T', flavour: q }); vecs.push(b.tplus[q - 1]!) }
   }
   vecs.push(b.sigma)
   const stack = new Float64Array(n * vecs.length)
@@ -140,22 +149,47 @@ function toState(slots: Float64Array[], nf: number, n: number): State {
   return { nf, carried, stack, gluon: b.gluon }
 }
 
-function toSlots(state: State, n: number): Float64Array[] {
-  const w = state.carried.length + 1
-  const zero = () => new Float64Array(n)
-  const basis: EvolutionBasis = {
-    nf: state.nf,
-    sigma: zero(),
-    gluon: state.gluon,
-    valence: Array.from({ length: state.nf }, zero),
-    tplus: Array.from({ length: state.nf }, zero)
+/**
+ * Writes x·f of the 13 slots at the n x nodes into out[base + ix·13 + slot], from the state:
+ * q_i + q̄_i = T_i + Σ/n_f, q_i = (q_i + q̄_i + V_i)/2, q̄_i = (q_i + q̄_i − V_i)/2 (as
+ * fromEvolutionBasis); flavours above n_f are left as they are in `out` (zero in a fresh array).
+ */
+function writeSlots(state: State, n: number, out: Float64Array, base: number): void {
+  const slotCount = N_SLOTS
+  const gluonSlot = GLUON_SLOT
+  const { nf, carried, stack, gluon } = state
+  const sigBase = carried.length * n
+  // Column of V_q and of T_q in the stack, −1 when zero (not carried); T_1 = −Σ_{q>1} T_q.
+  const vCol = new Int32Array(nf + 1).fill(-1)
+  const tCol = new Int32Array(nf + 1).fill(-1)
+  carried.forEach((c, v) => { (c.type === 'V' ? vCol : tCol)[c.flavour] = v * n })
+  const quarkSlot = new Int32Array(nf + 1)
+  const antiSlot = new Int32Array(nf + 1)
+  for (let q = 1; q <= nf; q++) ({ quark: quarkSlot[q], anti: antiSlot[q] } = quarkSlots(q))
+  for (let ix = 0; ix < n; ix++) {
+    const row = base + ix * slotCount
+    const sigmaPart = stack[sigBase + ix]! / nf
+    let tSum = 0
+    for (let q = 2; q <= nf; q++) if (tCol[q]! >= 0) tSum += stack[tCol[q]! + ix]!
+    for (let q = 1; q <= nf; q++) {
+      const t = q === 1 ? -tSum : tCol[q]! >= 0 ? stack[tCol[q]! + ix]! : 0
+      const v = vCol[q]! >= 0 ? stack[vCol[q]! + ix]! : 0
+      const plus = t + sigmaPart
+      out[row + quarkSlot[q]!] = 0.5 * (plus + v)
+      out[row + antiSlot[q]!] = 0.5 * (plus - v)
+    }
+    out[row + gluonSlot] = gluon[ix]!
   }
-  basis.sigma.set(state.stack.subarray((w - 1) * n, w * n))
-  state.carried.forEach((c, v) => {
-    const target = c.type === 'V' ? basis.valence[c.flavour - 1]! : basis.tplus[c.flavour - 1]!
-    target.set(state.stack.subarray(v * n, (v + 1) * n))
+}
+
+function toSlots(state: State, n: number): Float64Array[] {
+  const flat = new Float64Array(n * N_SLOTS)
+  writeSlots(state, n, flat, 0)
+  return Array.from({ length: N_SLOTS }, (_, slot) => {
+    const col = new Float64Array(n)
+    for (let ix = 0; ix < n; ix++) col[ix] = flat[ix * N_SLOTS + slot]!
+    return col
   })
-  return fromEvolutionBasis(basis)
 }
 
 /**
@@ -252,13 +286,14 @@ function evolveState(m: ConvolutionMatrices, state: State, ds: number, steps: nu
  */
 export function evolveMember(plan: EvolutionPlan, initialXf: Float64Array): MemberGrid {
   const n = plan.x.length
-  if (initialXf.length !== n * N_SLOTS) {
+  const slotCount = N_SLOTS // a local: an imported binding may be a property read in the loops
+  if (initialXf.length !== n * slotCount) {
     throw new RangeError(`the input needs ${n * N_SLOTS} values (${n} x nodes × ${N_SLOTS} flavours); got ${initialXf.length}`)
   }
   const slots = Array.from({ length: N_SLOTS }, (_, s) => {
     const col = new Float64Array(n)
     for (let ix = 0; ix < n; ix++) {
-      const v = initialXf[ix * N_SLOTS + s]!
+      const v = initialXf[ix * slotCount + s]!
       if (!Number.isFinite(v)) throw new RangeError(`input x·${partonName(EVOLVED_FLAVOURS[s]!)} at x = ${plan.x[ix]} is ${v}`)
       col[ix] = v
     }
@@ -271,7 +306,7 @@ export function evolveMember(plan: EvolutionPlan, initialXf: Float64Array): Memb
     }
   })
   const nq = plan.q2.length
-  const values = new Float64Array(nq * n * N_SLOTS)
+  const values = new Float64Array(nq * n * slotCount)
   let state = toState(slots, plan.nfStart, n)
   for (const op of plan.ops) {
     if (op.kind === 'evolve') {
@@ -279,11 +314,7 @@ export function evolveMember(plan: EvolutionPlan, initialXf: Float64Array): Memb
     } else if (op.kind === 'switch') {
       state = toState(toSlots(state, n), op.nf, n)
     } else {
-      const out = toSlots(state, n)
-      const base = op.index * n * N_SLOTS
-      for (let ix = 0; ix < n; ix++) {
-        for (let s = 0; s < N_SLOTS; s++) values[base + ix * N_SLOTS + s] = out[s]![ix]!
-      }
+      writeSlots(state, n, values, op.index * n * slotCount)
     }
   }
   return { x: Float64Array.from(plan.x), q2: Float64Array.from(plan.q2), flavours: [...plan.flavours], values }

@@ -28,16 +28,3 @@ export class InputError extends RangeError {
     this.source = source
   }
 }
-
-/**
- * A JSON path in the dotted/bracketed form used in messages.
- * @example formatPath(['pieces', 2, 'terms', 0, 'a']) // 'pieces[2].terms[0].a'
- */
-export function formatPath(path: readonly PropertyKey[]): string {
-  let out = ''
-  for (const p of path) {
-    if (typeof p === 'number') out += `[${p}]`
-    else out += out === '' ? String(p) : `.${String(p)}`
-  }
-  return out
-}

@@ -11,7 +11,7 @@ export {
   type GridSpec, type MembersSpec, type NuclearModificationDoc, type ParametrisedInputDoc, type PieceDoc, type TermDoc
 } from './schema'
 export { parseInputDocument, parseInputText, type InputDocument } from './parse'
-export { InputError, formatPath, type InputIssue } from './errors'
+export { InputError, type InputIssue } from './errors'
 
 // Model and parameter binding
 export {

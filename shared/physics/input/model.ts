@@ -4,7 +4,8 @@
  * parameter vector, and (for a nuclear modification) each bound-proton term as the product of a
  * baseline term and a modification term.
  */
-import { MZ_GEV, type AlphasReference } from '../alphas'
+import type { AlphasReference } from '../alphas'
+import { MZ_GEV } from '../constants'
 import type { FlavourScheme, SetTarget } from '../types'
 import { InputError, type InputIssue } from './errors'
 import { N_SLOTS, slotOf } from './flavours'

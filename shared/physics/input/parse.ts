@@ -5,7 +5,8 @@
 import type { ZodError } from 'zod'
 import { activeFlavours, checkScheme } from '../alphas'
 import { checkedCovariance } from '../fit/covariance'
-import { InputError, formatPath, type InputIssue } from './errors'
+import { formatPath } from '../json-path'
+import { InputError, type InputIssue } from './errors'
 import {
   NuclearModificationSchema, ParametrisedInputSchema,
   type NuclearModificationDoc, type ParametrisedInputDoc, type TermDoc

@@ -67,13 +67,3 @@ export function cleanHeader(header: SetHeader): SetHeader {
   for (const [k, v] of Object.entries(header)) if (v !== undefined) out[k] = v
   return out as unknown as SetHeader
 }
-
-/** Formats a zod issue path like the header's JSON: set.scheme.nf, grid.x[3]. */
-export function formatPath(path: ReadonlyArray<PropertyKey>): string {
-  let out = ''
-  for (const p of path) {
-    if (typeof p === 'number') out += `[${p}]`
-    else out += out === '' ? String(p) : `.${String(p)}`
-  }
-  return out
-}

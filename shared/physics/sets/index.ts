@@ -20,7 +20,7 @@ export type { WriteSetOptions } from './write'
 export { validateErrorSet, writeSetFile, assembleSetFile } from './write'
 
 // Validity rules
-export { THRESHOLD_TOLERANCE, checkXNodes, checkQ2Nodes, checkFlavours, checkMemberCount, checkValuesFinite, checkReplicaMean, thresholdsGeV2 } from './validate'
+export { checkXNodes, checkQ2Nodes, checkFlavours, checkMemberCount, checkValuesFinite, checkReplicaMean, thresholdsGeV2 } from './validate'
 
 // TOY sets (analytic, not fits)
 export type { ToyQ2Options, ToySetOptions } from './toy'

@@ -3,7 +3,8 @@ import { SetFormatError } from './errors'
 import type { SetEncoding } from './format'
 import { SET_FILE_MAGIC, SET_FILE_PREAMBLE_BYTES, SET_FORMAT_VERSION, bytesPerValue } from './format'
 import type { SetFileHeader } from './header'
-import { cleanHeader, formatPath, setFileHeaderSchema } from './header'
+import { formatPath } from '../json-path'
+import { cleanHeader, setFileHeaderSchema } from './header'
 import { checkFlavours, checkMemberCount, checkQ2Nodes, checkReplicaMean, checkValuesFinite, checkXNodes } from './validate'
 
 /** A set file's header, decoded and checked, with where its body lies. */

@@ -1,3 +1,4 @@
+import { HEAVY_QUARKS, THRESHOLD_TOLERANCE } from '../alphas'
 import type { FlavourScheme, Pdg, SetHeader } from '../types'
 import { SetFormatError } from './errors'
 
@@ -6,9 +7,6 @@ import { SetFormatError } from './errors'
  * write a set that the parser would refuse). Each check throws a SetFormatError naming the
  * member, node, flavour and header path concerned.
  */
-
-/** Relative tolerance when matching a repeated Q² node to a declared threshold m_h². */
-export const THRESHOLD_TOLERANCE = 1e-9
 
 /**
  * Checks the x nodes: finite, in (0, 1), strictly increasing, at least 2.
@@ -30,12 +28,7 @@ export function checkXNodes(x: ArrayLike<number>, pathPrefix = 'grid.x'): void {
 /** Thresholds m_h² (GeV²) at which a Q² node may repeat, for the scheme. */
 export function thresholdsGeV2(scheme: FlavourScheme): Array<{ flavour: string, q2: number }> {
   if (scheme.type !== 'variable') return []
-  const all = [
-    { flavour: 'charm', nf: 4, m: scheme.massesGeV.charm },
-    { flavour: 'bottom', nf: 5, m: scheme.massesGeV.bottom },
-    { flavour: 'top', nf: 6, m: scheme.massesGeV.top }
-  ]
-  return all.filter(t => scheme.nf >= t.nf).map(t => ({ flavour: t.flavour, q2: t.m * t.m }))
+  return HEAVY_QUARKS.filter(h => scheme.nf >= h.pdg).map(h => ({ flavour: h.name, q2: scheme.massesGeV[h.key] ** 2 }))
 }
 
 /**

@@ -7,7 +7,7 @@ import { scaleBands, type Bands } from './band'
 import { alphasVariationError } from './alphas-members'
 import { clScaleFactor } from './confidence'
 import { hessianAsymmetric, hessianOneSided, hessianSymmetric } from './hessian'
-import { withoutMembers, type MemberValues } from './matrix'
+import { withoutMembers, type MemberValues, type SpreadOptions } from './matrix'
 import { addInQuadrature } from './in-quadrature'
 import { replicaMeanSd, replicaMedianInterval } from './replicas'
 
@@ -61,20 +61,10 @@ export function prescriptionsFor(kind: SetKind): readonly Prescription[] {
   return list
 }
 
-/** Options of computeBands. CLs are in percent; 68 means one standard deviation. */
-export interface BandOptions {
-  /** Kind of the set the members come from. */
-  kind: SetKind
+/** Options of computeBands: the set's kind and CLs (SpreadOptions) and the prescription. */
+export interface BandOptions extends SpreadOptions {
   /** Prescription; must be valid for `kind` (PRESCRIPTIONS_BY_KIND). */
   prescription: Prescription
-  /** CL of the set's members (SetHeader.confidenceLevelPercent); default 68. */
-  clFrom?: number
-  /** CL of the band wanted; default 68. */
-  clTo?: number
-  /** [down, up] α_s variation members, set aside from the prescription and added in quadrature. */
-  alphasMembers?: readonly [number, number]
-  /** CL of the α_s(M_Z) variation behind those members; default `clFrom`. */
-  alphasCl?: number
 }
 
 /** computeBands' result: the total band plus its parts. */

@@ -6,21 +6,14 @@ import type { SetKind } from '../types'
 import { alphasShift } from './alphas-members'
 import { clScaleFactor } from './confidence'
 import { eigenvectorDeviations } from './hessian'
-import { withoutMembers, type MemberValues, type SquareMatrix } from './matrix'
+import { withoutMembers, type MemberValues, type SpreadOptions, type SquareMatrix } from './matrix'
 import { replicaCount, replicaMoments } from './replicas'
 
-/** Which set the members come from and at which CL the covariance is wanted. CLs in percent. */
-export interface CovarianceOptions {
-  kind: SetKind
-  /** CL of the set's members; default 68. */
-  clFrom?: number
-  /** CL the covariance describes (entries scale with the square of the CL factor); default 68. */
-  clTo?: number
-  /** [down, up] α_s members: set aside from the PDF members and added as ΔX_αs,i ΔX_αs,j. */
-  alphasMembers?: readonly [number, number]
-  /** CL of the α_s variation; default clFrom. */
-  alphasCl?: number
-}
+/**
+ * Which set the members come from and at which CL the covariance is wanted (entries scale with
+ * the square of the CL factor); the α_s members are added as ΔX_αs,i ΔX_αs,j.
+ */
+export type CovarianceOptions = SpreadOptions
 
 /**
  * Rows D (one per eigenvector or replica, `bins` columns) with covariance = Dᵀ D:

@@ -5,7 +5,7 @@
  */
 
 // Inputs and results
-export { type MemberValues, type SquareMatrix, memberValuesFromRows, assertMemberValues, withoutMembers, binColumn } from './matrix'
+export { type MemberValues, type SpreadOptions, type SquareMatrix, memberValuesFromRows, assertMemberValues, withoutMembers, binColumn } from './matrix'
 export { type Bands, type BandRow, makeBands, scaleBands, bandRows } from './band'
 
 // One entry point for a study's band

@@ -2,6 +2,7 @@
  * Member-value matrices: the values of one observable (or one bin of a study) for every member of
  * an error set. Everything else in `uncertainty/` takes this shape as input.
  */
+import type { SetKind } from '../types'
 
 /**
  * Values of `bins` observables for `members` members of one error set, row-major:
@@ -18,6 +19,27 @@ export interface MemberValues {
   bins: number
   /** Row-major values, length members × bins, all finite. */
   values: Float64Array
+}
+
+/**
+ * Where a member-value matrix comes from and at which confidence level a result is wanted: the
+ * options bands (computeBands) and covariances (binCovariance …) share. CLs are in percent;
+ * 68 means one standard deviation.
+ */
+export interface SpreadOptions {
+  /** Kind of the set the members come from. */
+  kind: SetKind
+  /** CL of the set's members (SetHeader.confidenceLevelPercent); default 68. */
+  clFrom?: number
+  /**
+   * CL of the result wanted; default 68. A band scales with z(clTo)/z(clFrom), a covariance with
+   * its square.
+   */
+  clTo?: number
+  /** [down, up] α_s variation members, set aside from the PDF members and added in quadrature. */
+  alphasMembers?: readonly [number, number]
+  /** CL of the α_s(M_Z) variation behind those members; default `clFrom`. */
+  alphasCl?: number
 }
 
 /**

@@ -1,9 +1,10 @@
 import { describe, expect, it } from 'vitest'
 import {
-  MZ_GEV, activeFlavours, alphasOneLoop, betaZero, evolutionTime, flavourThresholdsGeV2, makeAlphas
+  activeFlavours, alphasOneLoop, betaZero, evolutionTime, flavourThresholdsGeV2, makeAlphas
 } from '~/shared/physics/alphas'
+import { MZ_GEV } from '~/shared/physics/constants'
 import type { FlavourScheme } from '~/shared/physics/types'
-import { expectClose } from './close'
+import { expectClose } from '../close'
 
 const masses = { charm: 1.4, bottom: 4.75, top: 172.5 }
 const vfns: FlavourScheme = { type: 'variable', nf: 6, massesGeV: masses }

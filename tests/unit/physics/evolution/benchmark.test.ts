@@ -36,7 +36,7 @@ import { slotOf } from '~/shared/physics/input/flavours'
 import { compileInput } from '~/shared/physics/input/model'
 import { parseInputText } from '~/shared/physics/input/parse'
 import type { FlavourScheme } from '~/shared/physics/types'
-import { expectClose, relDiff } from './close'
+import { expectClose, relDiff } from '../close'
 
 const toy = compileInput(parseInputText(readFileSync('samples/fits/benchmark-toy-input.json', 'utf8'), 'benchmark-toy-input.json'))
 const bound = bindParameters(toy)

@@ -5,7 +5,7 @@ import { slotOf } from '~/shared/physics/input/flavours'
 import { compileInput } from '~/shared/physics/input/model'
 import { parseInputText } from '~/shared/physics/input/parse'
 import type { ErrorSet } from '~/shared/physics/types'
-import { expectClose } from './close'
+import { expectClose } from '../close'
 
 const load = (f: string) => parseInputText(readFileSync(`samples/fits/${f}`, 'utf8'), f)
 const quillonDoc = load('quillon-22.json')
@@ -68,5 +68,23 @@ describe('error sets from a fit (Hessian pairs and replicas), one shared evoluti
     const bare = { ...quillon, members: undefined }
     await expect(buildErrorSet(bare)).rejects.toThrow(/no members block/)
     await expect(buildErrorSet({ ...quillon, covariance: undefined }, { type: 'hessian', tolerance: 1, confidenceLevelPercent: 68 })).rejects.toThrow(/covariance/)
+  })
+
+  it('builds a one-member set from a single parameter vector (the central member alone)', async () => {
+    const set = await buildErrorSet(quillon, { type: 'parameters', kind: 'hessian-pairs', confidenceLevelPercent: 68, vectors: [quillon.central], description: 'central only' }, coarse)
+    expect(set.header).toMatchObject({ kind: 'hessian-pairs', memberCount: 1 })
+    expect(set.members).toHaveLength(1)
+    expect(Array.from(set.members[0]!)).toEqual(Array.from(evolveModel(quillon, planForModel(quillon, coarse)).values))
+  })
+
+  it.each([
+    ['no vector at all', 'hessian-pairs', 0, /at least one parameter vector: the central member/],
+    ['an even member count for eigenvector pairs', 'hessian-pairs', 2, /1 \+ 2N members; memberCount 2 gives an odd number \(1\)/],
+    ['a replica set whose mean would have no replica', 'replicas', 1, /needs at least one replica; memberCount is 1/]
+  ] as const)('refuses explicit vectors with %s before evolving anything', async (_label, kind, count, message) => {
+    let evolved = 0
+    const request = { type: 'parameters' as const, kind, confidenceLevelPercent: 68, vectors: Array.from({ length: count }, () => quillon.central), description: 'test' }
+    await expect(buildErrorSet(quillon, request, { ...coarse, onProgress: () => { evolved++ } })).rejects.toThrow(message)
+    expect(evolved).toBe(0)
   })
 })

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { q2Nodes, thresholdPairs } from '~/shared/physics/evolution/q2-grid'
 import { xNodes } from '~/shared/physics/evolution/x-grid'
 import type { FlavourScheme } from '~/shared/physics/types'
-import { expectClose } from './close'
+import { expectClose } from '../close'
 
 const vfns: FlavourScheme = { type: 'variable', nf: 6, massesGeV: { charm: Math.SQRT2, bottom: 4.5, top: 175 } }
 

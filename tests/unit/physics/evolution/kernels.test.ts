@@ -1,11 +1,11 @@
 import { describe, expect, it } from 'vitest'
 import { gammaGG, gammaGQ, gammaQG, gammaQQ } from '~/shared/physics/evolution/anomalous-dimensions'
 import { convolutionMatrices } from '~/shared/physics/evolution/convolution'
-import { gaussLegendre } from '~/shared/physics/evolution/quadrature'
+import { gaussLegendre } from '~/shared/physics/quadrature'
 import { CA, CF, TR, pggDelta } from '~/shared/physics/evolution/splitting'
 import { xNodes } from '~/shared/physics/evolution/x-grid'
 import { complex } from '~/shared/physics/input/complex'
-import { expectClose } from './close'
+import { expectClose } from '../close'
 
 describe('LO anomalous dimensions γ(N) = ∫ z^{N−1} P(z) dz (Ellis–Stirling–Webber ch. 4)', () => {
   it('conserve quark number: γ_qq(1) = 0', () => {

@@ -7,7 +7,7 @@ import { bindParameters } from '~/shared/physics/input/bind'
 import { sumRuleIntegrals } from '~/shared/physics/input/evaluate'
 import { compileInput } from '~/shared/physics/input/model'
 import { parseInputText } from '~/shared/physics/input/parse'
-import { expectClose } from './close'
+import { expectClose } from '../close'
 
 const load = (f: string) => parseInputText(readFileSync(`samples/fits/${f}`, 'utf8'), f)
 const quillon = load('quillon-22.json')

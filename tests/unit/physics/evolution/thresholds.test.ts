@@ -1,6 +1,8 @@
 import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
 import { evolveModel, planForModel } from '~/shared/physics/evolution/build-set'
+import { evolveMellin } from '~/shared/physics/evolution/mellin'
+import { bindParameters } from '~/shared/physics/input/bind'
 import { thresholdPairs } from '~/shared/physics/evolution/q2-grid'
 import { createEvolutionPlan, evolveMember } from '~/shared/physics/evolution/xspace'
 import { slotOf } from '~/shared/physics/input/flavours'
@@ -10,6 +12,7 @@ import type { MemberGrid } from '~/shared/physics/types'
 
 const load = (f: string) => parseInputText(readFileSync(`samples/fits/${f}`, 'utf8'), f)
 const quillon = compileInput(load('quillon-22.json'))
+const toy = compileInput(load('benchmark-toy-input.json'))
 const at = (g: MemberGrid, iq: number, ix: number, pdg: number) => g.values[(iq * g.x.length + ix) * g.flavours.length + g.flavours.indexOf(pdg)]!
 
 describe('heavy quarks in the variable-flavour scheme (DOMAIN.md §2: start at zero at μ² = m_h²)', () => {
@@ -58,5 +61,33 @@ describe('heavy quarks in the variable-flavour scheme (DOMAIN.md §2: start at z
     const x0 = new Float64Array(20 * 13)
     x0[3 * 13 + slotOf(4)] = 0.01
     expect(() => evolveMember(p, x0)).toThrow(/flavour c is not active at μ₀² = 1\.69 GeV²/)
+  })
+})
+
+describe('a first explicit Q² node exactly on a threshold above μ₀² (DOMAIN.md §2: the heavy quark starts at zero at μ² = m_h²)', () => {
+  // Toy input: μ₀² = 2 GeV², m_b² = 20.25, m_t² = 30625 GeV²; Quillon-22: μ₀² = 1.69, m_c² = 1.96 GeV².
+  it.each([
+    ['b from m_b² = 20.25 GeV² (toy input)', toy, [20.25, 1e4], 5],
+    ['t from m_t² = 30625 GeV² (toy input)', toy, [30625, 1e6], 6],
+    ['c from m_c² = 1.96 GeV² (Quillon-22)', quillon, [1.96, 10], 4]
+  ] as const)('switches on %s: zero at the node, then as with μ₀² in front and as in Mellin space', (_label, model, nodes, pdg) => {
+    const x = { count: 100, min: 1e-6, max: 0.99 }
+    const plan = planForModel(model, { x, q2: { nodesGeV2: nodes } })
+    const grid = evolveModel(model, plan)
+    expect(Array.from(grid.q2)).toEqual(nodes)
+    const withStart = evolveModel(model, planForModel(model, { x, q2: { nodesGeV2: [model.startScaleGeV2, ...nodes] } }))
+    const last = grid.q2.length - 1
+    const lastWithStart = withStart.q2.length - 1
+    const xs = [1e-4, 1e-2, 0.1, 0.5].map(v => grid.x.findIndex(n => n >= v))
+    const mellin = evolveMellin(bindParameters(model), model, xs.map(ix => ({ x: grid.x[ix]!, q2GeV2: nodes[1]! })))
+    xs.forEach((ix, p) => {
+      expect(at(grid, 0, ix, pdg)).toBe(0)
+      const value = at(grid, last, ix, pdg)
+      expect(value).toBeGreaterThan(0)
+      // Same steps either way: identical to rounding.
+      expect(Math.abs(value / at(withStart, lastWithStart, ix, pdg) - 1)).toBeLessThan(1e-12)
+      // Independent method (issue 3 goal: ≤ 1e-4 relative for x ≤ 0.7).
+      expect(Math.abs(value / mellin[p * 13 + slotOf(pdg)]! - 1)).toBeLessThan(1e-4)
+    })
   })
 })

@@ -8,7 +8,7 @@ import { EVOLVED_FLAVOURS, partonName } from '~/shared/physics/input/flavours'
 import { compileInput, type InputModel } from '~/shared/physics/input/model'
 import { parseInputText } from '~/shared/physics/input/parse'
 import type { FlavourScheme } from '~/shared/physics/types'
-import { relDiff } from './close'
+import { relDiff } from '../close'
 
 // The two methods share only α_s and the input's parameters: x space discretises the
 // convolutions on the grid and steps exp(sM); Mellin space solves each moment exactly (exact

@@ -1,7 +1,7 @@
 import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
 import { hessianMembers } from '~/shared/physics/fit/hessian'
-import { expectClose } from '../evolution/close'
+import { expectClose } from '../close'
 
 // A correlated 5-parameter covariance (invented for the test).
 const sigma = [0.02, 0.1, 0.3, 0.05, 0.7]

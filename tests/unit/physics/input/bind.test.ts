@@ -5,7 +5,7 @@ import { sumRuleIntegrals } from '~/shared/physics/input/evaluate'
 import { InputError } from '~/shared/physics/input/errors'
 import { compileInput } from '~/shared/physics/input/model'
 import { parseInputDocument, parseInputText } from '~/shared/physics/input/parse'
-import { expectClose } from '../evolution/close'
+import { expectClose } from '../close'
 
 const load = (f: string) => parseInputText(readFileSync(`samples/fits/${f}`, 'utf8'), f)
 const quillon = load('quillon-22.json')

@@ -9,7 +9,7 @@ import { evaluateXf, minimumXf, sumRuleIntegrals } from '~/shared/physics/input/
 import { slotOf } from '~/shared/physics/input/flavours'
 import { compileInput, type InputModel } from '~/shared/physics/input/model'
 import { parseInputText } from '~/shared/physics/input/parse'
-import { expectClose } from '../evolution/close'
+import { expectClose } from '../close'
 
 const load = (f: string) => parseInputText(readFileSync(`samples/fits/${f}`, 'utf8'), f)
 

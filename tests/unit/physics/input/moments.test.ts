@@ -2,8 +2,8 @@ import jStat from 'jstat'
 import { describe, expect, it } from 'vitest'
 import { complex } from '~/shared/physics/input/complex'
 import { multiplyTerms, termMoment, termMomentComplex, termXf, type NumericTerm } from '~/shared/physics/input/moments'
-import { gaussLegendre } from '~/shared/physics/evolution/quadrature'
-import { expectClose } from '../evolution/close'
+import { gaussLegendre } from '~/shared/physics/quadrature'
+import { expectClose } from '../close'
 
 const term = (A: number, a: number, b: number, c: number[] = []): NumericTerm => ({ A, a, b, c: Float64Array.from(c) })
 

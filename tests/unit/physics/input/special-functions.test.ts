@@ -4,7 +4,7 @@ import { complex } from '~/shared/physics/input/complex'
 import {
   EULER_GAMMA, beta, betaComplex, digammaComplex, harmonicS1, lnBeta, lnGamma, lnGammaComplex
 } from '~/shared/physics/input/special-functions'
-import { expectClose } from '../evolution/close'
+import { expectClose } from '../close'
 
 describe('ln Γ for real arguments', () => {
   it.each([

@@ -1,12 +1,22 @@
 import { describe, expect, it } from 'vitest'
-import { CKM, GAMMA_W_GEV, HBARC2_PB_GEV2, MW_GEV, MZ_GEV, ckmSquared } from '../../../../shared/physics/constants'
+import { CKM, GAMMA_W_GEV, GAMMA_Z_GEV, HBARC2_PB_GEV2, MW_GEV, MZ_GEV, PROTON_MASS_GEV, ckmSquared } from '../../../../shared/physics/constants'
 import { wHadronicWidthGeV, wLeptonicWidthGeV, zChargedLeptonWidthGeV, zHadronicWidthGeV, zNeutrinoWidthGeV } from '../../../../shared/physics/kernels'
 
-// Constants are PDG 2024 values quoted from memory (constants.ts); these tests check them
+// Most constants are PDG 2024 values quoted from memory (constants.ts); these tests check them
 // against relations that hold independently of the recalled digits, and check the LO
-// couplings through the partial widths they imply.
+// couplings through the partial widths they imply. The few confirmed on stored PDG pages are
+// checked against the printed digits.
 
 describe('physical constants', () => {
+  it.each([
+    ['M_Z (GeV)', MZ_GEV, 91.1880, 'PDG Live "Z" listing, Z MASS 91.1880 ± 0.0020 GeV, pdglive.lbl.gov/Particle.action?node=S044'],
+    ['Γ_Z (GeV)', GAMMA_Z_GEV, 2.4955, 'PDG Live "Z" listing, Z WIDTH 2.4955 ± 0.0023 GeV, pdglive.lbl.gov/Particle.action?node=S044'],
+    ['m_p (GeV)', PROTON_MASS_GEV, 0.93827208816, 'PDG 2022 Table 1.1 "Physical Constants": m_p = 938.272 088 16(29) MeV'],
+    ['(ħc)² (GeV² mb)', HBARC2_PB_GEV2 / 1e9, 0.3893793721, 'PDG 2022 Table 1.1 "Physical Constants": (ħc)² = 0.389 379 372 1 GeV² mbarn']
+  ])('%s is the printed value %f (%s)', (_label, value, printed) => {
+    expect(Math.abs(value / printed - 1)).toBeLessThan(1e-12)
+  })
+
   it('(ħc)² in pb GeV² equals (ħc)² from the exact ħc = 197.3269804 MeV fm (CODATA 2018 listing; exact since the 2019 SI), with 1 fm² = 10 mb', () => {
     expect(HBARC2_PB_GEV2 / ((0.1973269804 ** 2) * 10 * 1e9) - 1).toBeLessThan(1e-9)
   })

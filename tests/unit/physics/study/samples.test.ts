@@ -2,6 +2,7 @@ import { readFileSync, readdirSync } from 'node:fs'
 import { fileURLToPath } from 'node:url'
 import { describe, expect, it } from 'vitest'
 import { makeAlphas } from '../../../../shared/physics/alphas'
+import { MZ_GEV } from '../../../../shared/physics/constants'
 import { parseSetFile } from '../../../../shared/physics/sets'
 import { buildPlan, checkReach, evaluatePlan, parseStudySpec } from '../../../../shared/physics/study'
 
@@ -10,7 +11,7 @@ import { buildPlan, checkReach, evaluatePlan, parseStudySpec } from '../../../..
 
 const root = fileURLToPath(new URL('../../../../samples/', import.meta.url))
 const set = parseSetFile(new Uint8Array(readFileSync(`${root}sets/toy-hessian.sheafset`)))
-const alphas = makeAlphas({ value: set.header.alphasMzCentral, scaleGeV2: 91.188 ** 2 }, set.header.scheme)
+const alphas = makeAlphas({ value: set.header.alphasMzCentral, scaleGeV2: MZ_GEV ** 2 }, set.header.scheme)
 const studies = readdirSync(`${root}studies`).filter(f => f.endsWith('.json'))
 
 describe('sample studies', () => {

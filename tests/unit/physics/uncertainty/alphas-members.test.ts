@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { alphasShift, alphasVariationError } from '../../../../shared/physics/uncertainty/alphas-members'
 import { memberValuesFromRows } from '../../../../shared/physics/uncertainty/matrix'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 describe('α_s variation ΔX = ½|X(α_s⁺) − X(α_s⁻)| (DOMAIN §5)', () => {
   const m = memberValuesFromRows([[10, 5], [11, 5], [9, 5], [9.4, 5.3], [10.2, 4.9]])

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { bandRows, makeBands, scaleBands } from '../../../../shared/physics/uncertainty/band'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 describe('bands', () => {
   it('relative widths are half-widths over |central|, NaN at zero', () => {

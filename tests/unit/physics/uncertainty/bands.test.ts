@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { computeBands, isPrescription, PRESCRIPTIONS, PRESCRIPTIONS_BY_KIND, prescriptionsFor } from '../../../../shared/physics/uncertainty/bands'
 import { memberValuesFromRows } from '../../../../shared/physics/uncertainty/matrix'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 // 1 eigenvector pair + α_s members 3 (down) and 4 (up).
 const hessian = memberValuesFromRows([[10], [11], [9], [9.4], [10.2]])

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { chiSquare, compareWithSet, experimentalCovariance } from '../../../../shared/physics/uncertainty/chi2'
 import { memberValuesFromRows } from '../../../../shared/physics/uncertainty/matrix'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 // p-values: for ν = 2, P(χ² ≥ x) = e^{−x/2}; for ν = 1, P = 2(1 − Φ(√x)), e.g. x = 4 ↔ 2σ ↔ 4.55%
 // (closed forms of the χ² distribution, PDG review "Statistics", from memory).

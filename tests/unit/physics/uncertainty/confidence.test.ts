@@ -1,7 +1,7 @@
 import jStat from 'jstat'
 import { describe, expect, it } from 'vitest'
 import { clScaleFactor, sigmaMultiple } from '../../../../shared/physics/uncertainty/confidence'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 describe('two-sided Gaussian quantiles', () => {
   // Printed values: the PDG review "Statistics" table of the area of the tails outside ±δ of a

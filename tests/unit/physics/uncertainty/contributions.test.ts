@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { eigenvectorContributions } from '../../../../shared/physics/uncertainty/contributions'
 import { hessianSymmetric } from '../../../../shared/physics/uncertainty/hessian'
 import { memberValuesFromRows } from '../../../../shared/physics/uncertainty/matrix'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 const pairs = memberValuesFromRows([[10, 4], [12, 4.5], [9, 3], [10.5, 5], [11, 4]])
 

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest'
 import { computeBands } from '../../../../shared/physics/uncertainty/bands'
 import { binCorrelation, binCovariance, correlationFromCovariance, gram, observableCorrelation } from '../../../../shared/physics/uncertainty/covariance'
 import { memberValuesFromRows } from '../../../../shared/physics/uncertainty/matrix'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 // Same two-bin, two-pair matrix as hessian.test.ts: d = ½(X⁺ − X⁻) is bin 0 (1.5, −0.25), bin 1 (0.75, 0.5).
 const pairs = memberValuesFromRows([[10, 4], [12, 4.5], [9, 3], [10.5, 5], [11, 4]])

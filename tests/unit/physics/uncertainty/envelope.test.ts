@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { makeBands } from '../../../../shared/physics/uncertainty/band'
 import { bandEnvelope } from '../../../../shared/physics/uncertainty/envelope'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 // Envelope (common practice): lower = min of lows, upper = max of highs, central = midpoint.
 describe('envelope of several bands', () => {

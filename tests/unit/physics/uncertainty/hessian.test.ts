@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { hessianAsymmetric, hessianOneSided, hessianSymmetric, eigenvectorCount, eigenvectorDeviations } from '../../../../shared/physics/uncertainty/hessian'
 import { memberValuesFromRows } from '../../../../shared/physics/uncertainty/matrix'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 // Two bins, two eigenvector pairs (members 1,2 = X₁±; 3,4 = X₂±).
 const pairs = memberValuesFromRows([

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { makeBands } from '../../../../shared/physics/uncertainty/band'
 import { addBandsInQuadrature, addInQuadrature } from '../../../../shared/physics/uncertainty/in-quadrature'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 describe('independent uncertainties in quadrature (nuclear ⊕ baseline, DOMAIN §4)', () => {
   it('hand-worked: (+3 −3) ⊕ (+4 −0) = (+5 −3)', () => {

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest'
 import { computeBands } from '../../../../shared/physics/uncertainty/bands'
 import { binCovariance, observableCorrelation } from '../../../../shared/physics/uncertainty/covariance'
 import type { MemberValues } from '../../../../shared/physics/uncertainty/matrix'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 // Hessian linear-propagation identity (DOMAIN §5; J. Pumplin et al., hep-ph/0101032): with
 // C = Σ_k λ_k e_k e_kᵀ and members p_k± = p₀ ± T√λ_k e_k, a linear observable X = gᵀp has

@@ -5,7 +5,7 @@ import { binCovariance } from '../../../../shared/physics/uncertainty/covariance
 import type { MemberValues } from '../../../../shared/physics/uncertainty/matrix'
 import { reduceReplicasToHessian } from '../../../../shared/physics/uncertainty/pca'
 import { createNormalGenerator } from '../../../../shared/physics/uncertainty/prng'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 /** n replicas in `bins` bins: μ_b + Σ_j a_rj·u_jb + noise·z, u_j fixed smooth shapes. */
 function structuredReplicas(n: number, bins: number, shapes: number, noise: number, seed: number): MemberValues {

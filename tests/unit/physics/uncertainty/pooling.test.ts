@@ -5,7 +5,7 @@ import { hessianSymmetric } from '../../../../shared/physics/uncertainty/hessian
 import { memberValuesFromRows, type MemberValues } from '../../../../shared/physics/uncertainty/matrix'
 import { hessianToReplicas, poolSets } from '../../../../shared/physics/uncertainty/pooling'
 import { createNormalGenerator } from '../../../../shared/physics/uncertainty/prng'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 // Two bins, two pairs: ΔX = ½√9.25 and ½√3.25 (hessian.test.ts), correlated bins.
 const hessian = memberValuesFromRows([[10, 4], [12, 4.5], [9, 3], [10.5, 5], [11, 4]])

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { quantilesOfSorted, sampleQuantile, sortedCopy } from '../../../../shared/physics/uncertainty/quantile'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 // Hyndman & Fan (Am. Stat. 50 (1996) 361) definition 7, h = (n − 1)p. Hand-worked below and
 // cross-checked with Python's statistics.quantiles(method='inclusive'), the same definition.

@@ -3,7 +3,7 @@ import { describe, expect, it } from 'vitest'
 import { memberValuesFromRows, type MemberValues } from '../../../../shared/physics/uncertainty/matrix'
 import { createNormalGenerator } from '../../../../shared/physics/uncertainty/prng'
 import { replicaMeanSd, replicaMedianInterval, replicaMoments } from '../../../../shared/physics/uncertainty/replicas'
-import { expectClose } from './tolerance'
+import { expectClose } from '../close'
 
 describe('mean ± sample standard deviation', () => {
   it('hand-worked: replicas 1, 2, 3, 4 (member 0 = 100 is ignored)', () => {
