@@ -1,6 +1,7 @@
 import { eq, inArray } from 'drizzle-orm'
 import { tables as t } from '../../database/client'
 import type { Result, Study } from '../../database/workflow-schema'
+import type { StudySpec } from '../../../shared/physics/study/spec'
 import type { SetHeader } from '../../../shared/physics/types'
 import {
   bandEnvelope, clScaleFactor, compareWithSet, makeBands, poolSets, scaleBands, type MemberValues
@@ -16,6 +17,9 @@ export interface ComparedSet {
   name: string
 }
 
+/** The bins a result ran on (its spec snapshot). */
+const binsOf = (r: Result) => ((r.specSnapshot as SpecSnapshot).spec as StudySpec).bins
+
 /**
  * The newest finished result of `study` on each of `setIds` (default the study's sets), with the
  * member values. 409 when none has finished, or when they ran on different bins.
@@ -28,8 +32,9 @@ export async function comparedSets(study: Study, setIds?: string[]): Promise<Com
   }
   const results = await latestDoneResults(study.id, ids)
   if (!results.length) throw createError({ statusCode: 409, statusMessage: 'No finished results to compare yet; run the study first' })
-  const revisions = new Set(results.map(r => r.binCount))
-  if (revisions.size > 1) {
+  // Equal bin counts are not enough: an edit may move bins and keep their number.
+  const binSets = new Set(results.map(r => JSON.stringify(binsOf(r))))
+  if (binSets.size > 1) {
     throw createError({ statusCode: 409, statusMessage: 'The newest results were computed on different bins (the study was edited between runs); run the study again on every set' })
   }
   const headers = await useDB().select({ id: t.errorSets.id, header: t.errorSets.header }).from(t.errorSets)
@@ -43,7 +48,9 @@ export async function comparedSets(study: Study, setIds?: string[]): Promise<Com
 
 /**
  * Envelope of the sets' bands (each at its default or the study's prescription, all at
- * `clPercent`) and the Monte-Carlo pooled combination (PDF4LHC, arXiv:1510.03865), at `clPercent`.
+ * `clPercent`) and the Monte-Carlo pooled combination (PDF4LHC, arXiv:1510.03865), at `clPercent`,
+ * with the bins they ran on (comparedSets makes sure all ran on the same bins; the study's own
+ * bins may have been edited since).
  */
 export function combineSets(sets: ComparedSet[], study: Study, clPercent: number, requestedPerSet: number | undefined, seed: number) {
   const replicaCounts = sets.filter(s => s.header.kind === 'replicas').map(s => s.matrix.members - 1)
@@ -60,6 +67,7 @@ export function combineSets(sets: ComparedSet[], study: Study, clPercent: number
   const interval = makeBands(pooled.interval.central, pooled.interval.plus.map(v => v * factor), pooled.interval.minus.map(v => v * factor))
   return {
     clPercent,
+    bins: binsOf(sets[0]!.result),
     sets: perSet.map(p => ({ setId: p.s.result.setId, resultId: p.s.result.id, version: p.s.result.version, name: p.s.name, kind: p.s.header.kind, prescription: p.prescription, band: bandsAsJson(p.band) })),
     envelope: bandsAsJson(envelope),
     pooled: { replicasPerSet, seed, replicas: pooled.replicas.members - 1, sd: bandsAsJson(scaleBands(pooled.sd, factor)), interval: bandsAsJson(interval) }

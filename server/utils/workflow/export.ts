@@ -8,17 +8,9 @@ import { kernelDefinition } from '../../../shared/physics/kernels/registry'
 import { BIN_COLUMNS, resultUnit, type StudySpec } from '../../../shared/physics/study/spec'
 import type { SetHeader } from '../../../shared/physics/types'
 import type { Prescription } from '../../../shared/physics/uncertainty/bands'
+import { PRESCRIPTION_LABELS } from '../../../shared/utils/prescriptions'
 import type { BandResultJson } from './bands'
 import type { SpecSnapshot } from './result-versions'
-
-/** What a reader sees for each prescription. */
-export const PRESCRIPTION_LABELS: Record<Prescription, string> = {
-  'hessian-symmetric': 'Hessian pairs, symmetric',
-  'hessian-asymmetric': 'Hessian pairs, asymmetric',
-  'one-sided': 'Hessian one-sided eigenvectors',
-  'replica-sd': 'Replicas, mean ± standard deviation',
-  'replica-68-interval': 'Replicas, median and 68% interval'
-}
 
 const COLUMN_LABELS: Record<string, { label: string, unit?: string }> = {
   x: { label: 'x' }, xMin: { label: 'x min' }, xMax: { label: 'x max' },

@@ -2,7 +2,9 @@
 // on (kinematic reach). No Nitro imports: the worker re-checks a snapshot before running.
 import { makeAlphas } from '../../../shared/physics/alphas'
 import { MZ_GEV } from '../../../shared/physics/constants'
+import { ExpressionError } from '../../../shared/physics/kernels/expression'
 import type { KernelContext } from '../../../shared/physics/kernels/registry'
+import { buildUserKernel, type UserKernelOptions } from '../../../shared/physics/kernels/user-kernel'
 import { checkReach, type StudyAxes } from '../../../shared/physics/study/expand'
 import { checkStudySpec, type StudyIssue, type StudySpec } from '../../../shared/physics/study/spec'
 import type { SetHeader } from '../../../shared/physics/types'
@@ -49,10 +51,28 @@ export function kernelContextOf(header: SetHeader): KernelContext {
   return { alphas }
 }
 
-/** The engine's structural check: the validated spec, or the issues located by bin and column. */
+/**
+ * The engine's structural check: the validated spec, or the issues located by bin and column.
+ * A user kernel is also compiled here, so a broken expression is one issue at
+ * options.expression whatever sets the study runs on (the reach check would repeat it per set).
+ */
 export function checkSpec(input: unknown): { spec: StudySpec, issues: [] } | { spec: null, issues: StudyIssue[] } {
   const r = checkStudySpec(input)
-  return r.ok ? { spec: r.spec, issues: [] } : { spec: null, issues: r.issues }
+  if (!r.ok) return { spec: null, issues: r.issues }
+  const kernelIssue = r.spec.kernel === 'user' ? userKernelIssue(r.spec.options as UserKernelOptions) : null
+  return kernelIssue ? { spec: null, issues: [kernelIssue] } : { spec: r.spec, issues: [] }
+}
+
+/** Why the user kernel with these (schema-checked) options does not compile, or null. */
+function userKernelIssue(options: UserKernelOptions): StudyIssue | null {
+  try {
+    buildUserKernel(options)
+    return null
+  } catch (err) {
+    if (err instanceof ExpressionError) return { column: 'options.expression', path: ['options', 'expression'], message: err.message }
+    if (err instanceof RangeError) return { column: 'options', path: ['options'], message: err.message }
+    throw err
+  }
 }
 
 /**

@@ -6,6 +6,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { testDB, tables as t } from '../../support/db'
 import { waitForMail } from '../../support/outbox'
 import { createWorkspace, type TestWorkspace } from '../../support/users'
+import { bytesToFloat64 } from '../../../server/utils/workflow/float64'
 import { RESULT_CAUTION } from '../../../shared/export/caution'
 import { f2Spec, postForm, toySetBytes, uploadSet, waitForResult } from './helpers'
 
@@ -24,6 +25,13 @@ async function createStudy(body: Record<string, unknown>) {
   const res = await ws.analyst.client.post(`${api()}/studies`, { name: 'a study', ...body })
   expect(res.status, JSON.stringify(res.body)).toBe(201)
   return res.body as { id: string, revision: number }
+}
+
+/** The stored values of a finished result, as (member, 0-based bin) => value. */
+async function storedValues(resultId: string) {
+  const [row] = await testDB().select().from(t.resultValues).where(eq(t.resultValues.resultId, resultId))
+  const values = bytesToFloat64(row!.values)
+  return (member: number, bin: number) => values[member * row!.binCount + bin]!
 }
 
 async function runAndWait(studyId: string, setIds?: string[]) {
@@ -70,6 +78,28 @@ describe('creating and editing studies', () => {
     expect(draft.status).toBe(422)
     const ok = await ws.viewer.client.post(`${api()}/studies/validate`, { spec: f2Spec(2), setIds: [hessian] })
     expect(ok.body).toMatchObject({ ok: true, spec: { kernel: 'dis-nc-f2' } })
+  })
+
+  it('compiles a user kernel\'s expression once, with or without sets (400 at options.expression)', async () => {
+    const spec = (expression: string) => ({ kernel: 'user', options: { mode: 'dis', expression, weights: [{ a: 2, w: 4 / 9 }, { a: -2, w: 4 / 9 }] }, bins: [{ x: 0.01, q2: 10 }] })
+    const at = (message: RegExp) => [{ message: expect.stringMatching(message), column: 'options.expression', path: ['options', 'expression'] }]
+    // "foo" starts at the 5th character of "x * foo"; the DIS-like mode without √s knows x and q2 only.
+    for (const setIds of [[], [hessian, replicas]]) {
+      const res = await ws.viewer.client.post(`${api()}/studies/validate`, { spec: spec('x * foo'), setIds })
+      expect(res.status, JSON.stringify(setIds)).toBe(400)
+      expect(res.body.data.issues).toEqual(at(/^column 5: unknown name "foo"/))
+    }
+    const ok = await ws.viewer.client.post(`${api()}/studies/validate`, { spec: spec('x * q2'), setIds: [] })
+    expect(ok.status).toBe(200)
+    // "x *" ends after 3 characters, so the parser stops at column 4.
+    const create = await ws.analyst.client.post(`${api()}/studies`, { name: 'broken kernel', spec: spec('x *'), setIds: [] })
+    expect(create.status).toBe(400)
+    expect(create.body.data.issues).toEqual(at(/^column 4: syntax error/))
+    const study = await createStudy({ spec: spec('1'), setIds: [hessian] })
+    const edit = await ws.analyst.client.patch(`${api()}/studies/${study.id}`, { spec: spec('x * foo') })
+    expect(edit.status).toBe(400)
+    expect(edit.body.data.issues).toEqual(at(/^column 5: unknown name "foo"/))
+    expect((await ws.viewer.client.get(`${api()}/studies/${study.id}`)).body).toMatchObject({ revision: 1, spec: { options: { expression: '1' } } })
   })
 
   it('counts the revision up on each save and refuses a stale one (409)', async () => {
@@ -167,6 +197,38 @@ describe('running a study', () => {
     const none = await ws.viewer.client.get(`${api()}/results/${rep!.id}/contributions?bin=1`)
     expect(none.status).toBe(422)
     expect(none.body.statusMessage).toMatch(/replica/i)
+    // Each member's shift from the central value: members 2k−1 and 2k are X_k⁺ and X_k⁻ (DOMAIN §5).
+    const X = await storedValues(h!.id)
+    c.body.eigenvectors.forEach((e: { eigenvector: number, signed: number, plus: number, minus: number }, i: number) => {
+      const k = i + 1
+      expect(e.eigenvector).toBe(k)
+      expect(e.plus).toBeCloseTo(X(2 * k - 1, 1) - X(0, 1), 14)
+      expect(e.minus).toBeCloseTo(X(2 * k, 1) - X(0, 1), 14)
+      expect(e.signed).toBeCloseTo((e.plus - e.minus) / 2, 14)
+    })
+    // At 90% CL every shift is z(0.95) = 1.6448536… times the 68% one (PDG review "Statistics",
+    // table of Gaussian quantiles).
+    const c90 = await ws.viewer.client.get(`${api()}/results/${h!.id}/contributions?bin=2&cl=90`)
+    expect(c90.body.clPercent).toBe(90)
+    c90.body.eigenvectors.forEach((e: { plus: number, minus: number }, i: number) => {
+      expect(e.plus / c.body.eigenvectors[i].plus).toBeCloseTo(1.6448536, 6)
+      expect(e.minus / c.body.eigenvectors[i].minus).toBeCloseTo(1.6448536, 6)
+    })
+  })
+
+  it('gives one-sided eigenvectors a plus shift X_k − X₀ and no minus member', async () => {
+    const oneSided = (await uploadSet(ws.analyst.client, ws.id, toySetBytes({ name: 'study-1s', kind: 'hessian-one-sided', errorMembers: 3 }).bytes)).id
+    const study = await createStudy({ spec: f2Spec(2), setIds: [oneSided] })
+    const [r] = await runAndWait(study.id)
+    const c = await ws.viewer.client.get(`${api()}/results/${r!.id}/contributions?bin=2`)
+    expect(c.status).toBe(200)
+    const X = await storedValues(r!.id)
+    expect(c.body.eigenvectors).toHaveLength(3)
+    c.body.eigenvectors.forEach((e: { signed: number, plus: number, minus: null }, i: number) => {
+      expect(e.minus).toBeNull()
+      expect(e.plus).toBeCloseTo(X(i + 1, 1) - X(0, 1), 14)
+      expect(e.signed).toBe(e.plus)
+    })
   })
 
   it('makes a new version on each run, keeping the old one, and refuses a double run', async () => {
@@ -311,6 +373,7 @@ describe('comparison and measurements', () => {
   it('combines sets as an envelope and as a pooled Monte-Carlo set', async () => {
     const res = await ws.viewer.client.get(`${api()}/studies/${studyId}/comparison?replicasPerSet=40&seed=3`)
     expect(res.status).toBe(200)
+    expect(res.body.bins).toEqual(f2Spec(4).bins)
     expect(res.body.sets).toHaveLength(2)
     const [a, b] = res.body.sets
     for (let i = 0; i < 4; i++) {
@@ -327,6 +390,24 @@ describe('comparison and measurements', () => {
     const tooMany = await ws.viewer.client.get(`${api()}/studies/${studyId}/comparison?replicasPerSet=500`)
     expect(tooMany.status).toBe(422)
     expect(tooMany.body.statusMessage).toMatch(/replicas/)
+  })
+
+  it('gives the bins the results ran on, and refuses to combine results on different bins (409)', async () => {
+    const study = await createStudy({ name: 'Moved bins', spec: f2Spec(3), setIds: [hessian, replicas] })
+    await runAndWait(study.id)
+    // Same number of bins, other Q²: only the Hessian set is run again.
+    const moved = { kernel: 'dis-nc-f2', bins: f2Spec(3).bins.map(b => ({ ...b, q2: 2 * b.q2 })) }
+    expect((await ws.analyst.client.patch(`${api()}/studies/${study.id}`, { spec: moved })).status).toBe(200)
+    await runAndWait(study.id, [hessian])
+    const mixed = await ws.viewer.client.get(`${api()}/studies/${study.id}/comparison`)
+    expect(mixed.status).toBe(409)
+    expect(mixed.body.statusMessage).toMatch(/different bins/)
+    const rerun = await ws.viewer.client.get(`${api()}/studies/${study.id}/comparison?setIds=${hessian}`)
+    expect(rerun.status).toBe(200)
+    expect(rerun.body.bins).toEqual(moved.bins)
+    const old = await ws.viewer.client.get(`${api()}/studies/${study.id}/comparison?setIds=${replicas}`)
+    expect(old.status).toBe(200)
+    expect(old.body.bins).toEqual(f2Spec(3).bins)
   })
 
   it('reads a measurement CSV with located errors and gives χ² with and without the PDF covariance', async () => {

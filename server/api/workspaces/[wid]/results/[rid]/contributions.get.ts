@@ -1,7 +1,6 @@
-import { eigenvectorContributions } from '../../../../../../shared/physics/uncertainty/contributions'
-
-// For one bin (?bin=, 1-based) of a finished Hessian result: each eigenvector's signed shift and
-// share of the variance. Replica sets have no eigenvectors: 422.
+// For one bin (?bin=, 1-based) of a finished Hessian result, at ?cl= (default the study's): each
+// eigenvector's signed shift, share of the variance and the shifts of its members from the
+// central value. Replica sets have no eigenvectors: 422.
 export default defineEventHandler(async (event) => {
   const user = requireUser(event)
   const workspaceId = uuidParam(event, 'wid', 'Workspace')
@@ -16,11 +15,7 @@ export default defineEventHandler(async (event) => {
   const { clPercent } = reportingChoice(result, header, { cl: query.cl })
   const { matrix } = await loadResultValues(result.id)
   try {
-    const c = eigenvectorContributions(matrix, query.bin - 1, { kind: header.kind, clFrom: header.confidenceLevelPercent, clTo: clPercent, alphasMembers: header.alphasMembers })
-    return {
-      bin: query.bin, clPercent, total: c.total,
-      eigenvectors: Array.from(c.eigenvector, (k, i) => ({ eigenvector: k, signed: c.signed[i]!, fraction: Number.isFinite(c.fraction[i]!) ? c.fraction[i]! : null }))
-    }
+    return { bin: query.bin, clPercent, ...eigenvectorBars(matrix, query.bin - 1, header, clPercent) }
   } catch (err) {
     throw engineRejection(err, 'No eigenvector contributions')
   }
