@@ -4,6 +4,7 @@ import type { BinColumn, BinRow as GridRow, RowCheck, RowProblem } from '#shared
 import type { AxisSpec, BinPositions } from '#shared/export/figures'
 import type { VariableName, VariableSpec } from '#shared/physics/kernels/registry'
 import type { BinRow as SpecBin } from '#shared/physics/study/spec'
+import { PRESCRIPTION_LABELS } from '#shared/utils/prescriptions'
 
 // ── The bins grid of a study: which columns a kernel's variables give, and the conversions
 // between the spec's bins and the grid's rows. Pure functions; the pages feed them the kernel's
@@ -174,15 +175,8 @@ export const KIND_LABELS: Record<string, string> = {
   'hessian-pairs': 'Hessian pairs', 'hessian-one-sided': 'Hessian one-sided', 'replicas': 'Monte-Carlo replicas'
 }
 
-/** Selector wording of each prescription. */
-export const PRESCRIPTION_NAMES: Record<string, string> = {
-  'auto': 'the set\'s default',
-  'hessian-symmetric': 'symmetric ½√Σ(X⁺ − X⁻)²',
-  'hessian-asymmetric': 'asymmetric ΔX⁺, ΔX⁻',
-  'one-sided': 'one-sided √Σ(X − X₀)²',
-  'replica-sd': 'mean ± standard deviation',
-  'replica-68-interval': 'median, 68 % interval'
-}
+/** Words for each prescription, as the exports print them (plus the study's 'auto'). */
+export const PRESCRIPTION_NAMES: Readonly<Record<string, string>> = { auto: 'the set\'s default', ...PRESCRIPTION_LABELS }
 
 const SUPERSCRIPT = '⁻⁰¹²³⁴⁵⁶⁷⁸⁹'
 /** A grid bound as people write it: 0.95, 10⁻⁵, 2.5×10⁸. */
