@@ -53,8 +53,17 @@ export async function resultBands(r: Result, header: SetHeader, prescription: Pr
 }
 
 /** Bin-to-bin covariance (at `clPercent`) and correlation of a finished result. */
+/** Largest bin count for which the n × n matrices are built (10,000² doubles exhausted the server's heap). */
+export const MATRIX_MAX_BINS = Number(process.env.SHEAF_MATRIX_MAX_BINS ?? 2000)
+
 export async function resultMatrices(r: Result, header: SetHeader, clPercent: number) {
   const { matrix } = await loadResultValues(r.id)
+  if (matrix.bins > MATRIX_MAX_BINS) {
+    throw createError({
+      statusCode: 413,
+      statusMessage: `The bin-to-bin matrices are offered up to ${MATRIX_MAX_BINS} bins; this result has ${matrix.bins}. Export the member values (JSON) and build the matrix offline, or split the study`
+    })
+  }
   const source = memberSourceOf(header)
   const covariance = binCovariance(matrix, { kind: source.kind, clFrom: source.confidenceLevelPercent, clTo: clPercent, alphasMembers: source.alphasMembers })
   const correlation = correlationFromCovariance(covariance)

@@ -446,3 +446,20 @@ describe('comparison and measurements', () => {
     expect((await ws.viewer.client.get(`${url}/${form.body.id}`)).status).toBe(404)
   })
 })
+
+describe('matrices of very large studies', () => {
+  it('refuses the n × n matrices above the bin cap with 413 and a message, the bands still come', async () => {
+    // 2001 bins: one over the default cap of 2000 (server/utils/workflow/results.ts MATRIX_MAX_BINS).
+    const bins = Array.from({ length: 2001 }, (_, i) => ({ x: 0.001 + 0.4 * i / 2001, q2: 10 }))
+    const study = await createStudy({ spec: { kernel: 'dis-nc-f2', bins }, setIds: [hessian] })
+    const [h] = await runAndWait(study.id)
+    const m = await ws.viewer.client.get(`${api()}/results/${h!.id}/matrices`)
+    expect(m.status).toBe(413)
+    expect(m.body.statusMessage).toMatch(/up to 2000 bins; this result has 2001/)
+    const csv = await ws.viewer.client.get(`${api()}/results/${h!.id}/export?format=correlation`)
+    expect(csv.status).toBe(413)
+    const bands = await ws.viewer.client.get(`${api()}/results/${h!.id}`)
+    expect(bands.status).toBe(200)
+    expect(bands.body.bands.central).toHaveLength(2001)
+  })
+})
