@@ -4,7 +4,7 @@ export default defineNuxtConfig({
   srcDir: '.',
   devtools: { enabled: false },
   telemetry: false,
-  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt'],
+  modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@nuxt/eslint'],
   css: ['@fontsource/public-sans/400.css', '@fontsource/public-sans/600.css', '@fontsource/public-sans/700.css'],
   pinia: { storesDirs: ['./stores/**'] },
   tailwindcss: { configPath: 'tailwind.config.ts', viewer: false },

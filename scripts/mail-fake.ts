@@ -3,7 +3,7 @@
 // Env: DATABASE_URL, MAIL_FAKE_PORT (default 2525).
 import { SMTPServer } from 'smtp-server'
 import { createDB, tables } from '../server/database/client'
-import { parseMail } from '../server/mail/mime'
+import { parseMail } from '../server/domain/mail/mime'
 
 const port = Number(process.env.MAIL_FAKE_PORT ?? 2525)
 const url = process.env.DATABASE_URL

@@ -2,7 +2,9 @@
  * Writes the sample error-set files in samples/sets/: two TOY sets to try uploads and studies,
  * and deliberately malformed files for the upload error paths (each described in
  * samples/sets/README.md with the error it must produce). The TOY sets come from made-up
- * analytic functions (shared/physics/sets/toy.ts): they are not fits and not evolutions.
+ * analytic functions (shared/physics/sets/toy.ts): they are not fits and not evolutions. The
+ * replica files (toy-replicas, bad-replica-mean) draw from the engine's random streams
+ * (shared/physics/random.ts): run this again whenever those change.
  *
  *   npx tsx scripts/make-sample-sets.ts
  */

@@ -4,6 +4,7 @@ import type { BinColumn, BinRow as GridRow, RowCheck, RowProblem } from '#shared
 import type { AxisSpec, BinPositions } from '#shared/export/figures'
 import type { VariableName, VariableSpec } from '#shared/physics/kernels/registry'
 import type { BinRow as SpecBin } from '#shared/physics/study/spec'
+import type { BandJson } from '#shared/physics/uncertainty/band'
 import { PRESCRIPTION_LABELS } from '#shared/utils/prescriptions'
 
 // ── The bins grid of a study: which columns a kernel's variables give, and the conversions
@@ -123,7 +124,7 @@ export function serverCheck(issues: readonly BinIssue[], columns: readonly BinCo
     const reason = issue.message.replace(/(^|: )bin \d+(, column \w+)?: /, '$1')
     // A reach message names the quantity first ("x = 1e-7 … is below the set's smallest x node").
     const named = /(?:^|: )(x|Q²|M|y)[₁₂]? = /.exec(reason)?.[1]
-    const column = issue.column && keys.has(issue.column) ? issue.column : (columns.find(c => c.quantity === named) ?? columns[0]!).key
+    const column = issue.column && keys.has(issue.column) ? issue.column : ((named && columns.find(c => c.quantity === named)) || columns[0]!).key
     byRow.set(issue.bin - 1, [...(byRow.get(issue.bin - 1) ?? []), { column, reason }])
   }
   return (_row, index) => byRow.get(index)
@@ -187,10 +188,13 @@ export function sciText(v: number): string {
   return `${Number(m) === 1 ? '' : `${Number(m)}×`}10${power}`
 }
 
+/** The order a reader names a bin's variables in: x, Q², then mass before rapidity. */
+const READING_ORDER: readonly VariableName[] = ['x', 'q2', 'm', 'y']
+
 /** A bin as a reader names it: "M 60–80 GeV, y −1–1", "x 0.01, Q² 10 GeV²". */
 export function binText(bin: SpecBin | undefined): string {
   if (!bin) return ''
-  const parts = (Object.keys(NAMES) as VariableName[]).flatMap((n) => {
+  const parts = READING_ORDER.flatMap((n) => {
     const { label, unit } = NAMES[n]
     const lo = bin[`${n}Min`]
     const hi = bin[`${n}Max`]
@@ -202,9 +206,6 @@ export function binText(bin: SpecBin | undefined): string {
 
 export const targetText = (t: { type: string, z?: number, a?: number } | null | undefined) =>
   !t ? '—' : t.type === 'nucleus' ? `nucleus Z = ${t.z}, A = ${t.a}` : t.type
-
-/** An ISO time as "2026-12-01 22:34" (UTC, as stored). */
-export const timeText = (iso: string | null | undefined) => (iso ? iso.slice(0, 16).replace('T', ' ') : '—')
 
 /** The message of a failed $fetch (the route's statusMessage), and its located issues. */
 export function fetchFailure(err: unknown): { status: number, message: string, issues: BinIssue[] } {
@@ -237,7 +238,8 @@ export interface StudyDetail {
   results: ResultRow[], measurements: Array<{ id: string, name: string, pointCount: number, createdAt: string }>
 }
 
-export interface BandJson { central: number[], plus: number[], minus: number[], relPlus: Array<number | null>, relMinus: Array<number | null> }
+/** The engine's band in its JSON form (null where a relative width is undefined), as the API sends it. */
+export type { BandJson }
 
 export interface TrailEntry { action: string, at: string, actorName: string | null, comment?: string, detail?: Record<string, unknown> }
 

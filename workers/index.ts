@@ -1,34 +1,19 @@
 // The queue worker: plain Node (tsx), started beside the Nuxt server by scripts/start.sh.
-// Env: DATABASE_URL, REDIS_URL. SIGTERM/SIGINT drain running jobs, then exit.
-import { type Job, Worker } from 'bullmq'
+// Env: DATABASE_URL, REDIS_URL (server/domain/settings.ts). SIGTERM/SIGINT drain running jobs.
+import { Worker } from 'bullmq'
 import IORedis from 'ioredis'
 import { createDB } from '../server/database/client'
-import { JOB_KINDS, QUEUES } from '../shared/queue/names'
+import { readSettings } from '../server/domain/settings'
 import { BUILD_SET_QUEUE, RUN_STUDY_QUEUE } from '../shared/queue/workflow'
-import { buildSetJob } from './jobs/build-set'
-import { runStudyJob } from './jobs/run-study'
-import { runSquare } from './jobs/square'
+import { buildSetJob, runStudyJob } from './handlers'
 
-const databaseUrl = process.env.DATABASE_URL
-const redisUrl = process.env.REDIS_URL
-if (!databaseUrl || !redisUrl) throw new Error('DATABASE_URL and REDIS_URL must be set')
-
-const db = createDB(databaseUrl, 4)
-const connection = new IORedis(redisUrl, { maxRetriesPerRequest: null })
-
-// One handler per job kind on the demo queue; the workflow adds queues and kinds here.
-const demoHandlers: Record<string, (job: Job) => Promise<unknown>> = {
-  [JOB_KINDS.square]: job => runSquare(db, job)
-}
+const settings = readSettings()
+const db = createDB(settings.databaseUrl, 4)
+const connection = new IORedis(settings.redisUrl, { maxRetriesPerRequest: null })
 
 const workers = [
-  new Worker(QUEUES.demo, async (job) => {
-    const handler = demoHandlers[job.name]
-    if (!handler) throw new Error(`No handler for job kind ${job.name}`)
-    return handler(job)
-  }, { connection, concurrency: 2 }),
-  new Worker(RUN_STUDY_QUEUE, job => runStudyJob(db, job), { connection, concurrency: 2 }),
-  new Worker(BUILD_SET_QUEUE, job => buildSetJob(db, job), { connection, concurrency: 1 })
+  new Worker(RUN_STUDY_QUEUE, job => runStudyJob(db, settings, job), { connection, concurrency: 2 }),
+  new Worker(BUILD_SET_QUEUE, job => buildSetJob(db, settings, job), { connection, concurrency: 1 })
 ]
 
 for (const w of workers) {

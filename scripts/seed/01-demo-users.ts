@@ -1,6 +1,6 @@
 import { and, eq } from 'drizzle-orm'
 import { tables as t } from '../../server/database/client'
-import { hashPassword } from '../../server/utils/password'
+import { hashPassword } from '../../server/domain/accounts/password'
 import type { Role } from '../../shared/utils/roles'
 import type { SeedContext } from './context'
 

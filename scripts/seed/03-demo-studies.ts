@@ -1,5 +1,5 @@
 // The demo studies of the invented Kestrel Forward Collaboration, with results computed in this
-// process (runStudyInline, not the queue: npm start seeds before the worker is up), a
+// process (runStudy, not the queue: npm start seeds before the worker is up), a
 // pseudo-measurement on the Drell–Yan study, and review steps so the review panel has content.
 // Idempotent: a study is found by name, a result counts when a finished version of it exists,
 // the measurement by name, a review step only on a result that has none yet.
@@ -7,17 +7,18 @@ import { readFileSync } from 'node:fs'
 import { and, desc, eq, getTableColumns } from 'drizzle-orm'
 import type { DB } from '../../server/database/client'
 import { tables as t } from '../../server/database/client'
-import type { ErrorSetRow as FullSetRow, Result, Study } from '../../server/database/workflow-schema'
+import type { ErrorSetRow as FullSetRow, Result, Study } from '../../server/database/schema'
 
-/** A set's row without its file. */
-type ErrorSetRow = Omit<FullSetRow, 'content'>
-import { parseCorrelationMatrix, parseMeasurementPoints, type MeasurementData } from '../../server/utils/workflow/measurement-csv'
-import { insertResultVersions } from '../../server/utils/workflow/result-versions'
+import { parseCorrelationMatrix, parseMeasurementPoints, type MeasurementData } from '../../shared/measurements/csv'
+import { insertResultVersions } from '../../server/domain/results/versions'
 import { importBinsCsv, type BinColumn } from '../../shared/bins'
 import type { BinRow, StudySpec, StudySpecInput } from '../../shared/physics/study/spec'
 import type { Role } from '../../shared/utils/roles'
 import type { SeedContext } from './context'
 import type { DemoSetKey } from './02-demo-sets'
+
+/** A set's row without its file. */
+type ErrorSetRow = Omit<FullSetRow, 'content'>
 
 export interface DemoStudy {
   name: string
@@ -140,7 +141,7 @@ async function findOrCreateStudy(db: DB, workspaceId: string, analyst: string, d
   const [existing] = await db.select().from(t.studies).where(and(eq(t.studies.workspaceId, workspaceId), eq(t.studies.name, d.name)))
   if (existing) return existing
   const spec = await demoSpec(d)
-  const { reachProblems } = await import('../../server/utils/workflow/study-check')
+  const { reachProblems } = await import('../../server/domain/studies/check')
   const problems = sets.flatMap(s => reachProblems(spec, s, second))
   if (problems.length) throw new RangeError(`demo study "${d.name}": ${problems[0]!.message}`)
   return db.transaction(async (tx) => {
@@ -163,11 +164,11 @@ async function ensureResult(db: DB, study: Study, set: ErrorSetRow, second: Erro
   const done = versions.find(r => r.state === 'done')
   if (done) return { result: done, computed: false }
   const pending = versions.find(r => r.state === 'queued' || r.state === 'running')
-    ?? (await insertResultVersions(db, { study, spec: study.spec as StudySpec, sets: [set], second, userId: analyst }))[0]!
+    ?? (await insertResultVersions(db, { study, spec: study.spec, sets: [set], second, userId: analyst }))[0]!
   // Imported here: the engine (and its expression parser) takes about a second to load, which
   // a seed with nothing to compute should not pay.
-  const { runStudyInline } = await import('../../workers/jobs/run-study')
-  await runStudyInline(db, pending.id)
+  const { runStudy } = await import('../../server/domain/studies/run')
+  await runStudy(db, pending.id)
   const [row] = await db.select().from(t.results).where(eq(t.results.id, pending.id))
   if (row?.state !== 'done') throw new Error(`demo study "${study.name}" on ${set.name}: the result ended ${row?.state ?? 'missing'}${row?.error ? ` (${row.error})` : ''}`)
   return { result: row, computed: true }
@@ -196,7 +197,7 @@ async function seedMeasurement(db: DB, workspaceId: string, study: Study, m: Non
     .where(and(eq(t.measurements.studyId, study.id), eq(t.measurements.name, m.name)))
   if (existing) return false
   const data = readMeasurement(m)
-  const bins = (study.spec as StudySpec).bins.length
+  const bins = (study.spec).bins.length
   if (data.values.length !== bins) throw new RangeError(`samples/measurements/${m.points}: ${data.values.length} points for the ${bins} bins of "${study.name}"`)
   await db.transaction(async (tx) => {
     const [row] = await tx.insert(t.measurements).values({ studyId: study.id, name: m.name, data, pointCount: bins, uploadedBy: analyst }).returning({ id: t.measurements.id })
@@ -233,7 +234,7 @@ export async function run({ db, log, state }: SeedContext) {
       const measured = d.measurement ? await seedMeasurement(db, workspaceId, study, d.measurement, users.analyst) : false
       if (computed || reviewed || measured) {
         changed++
-        log(`demo study "${d.name}": ${(study.spec as StudySpec).bins.length} bins, ${computed} result(s) computed${reviewed ? ', review steps added' : ''}${measured ? ', measurement added' : ''} (${Math.round(performance.now() - started)} ms)`)
+        log(`demo study "${d.name}": ${(study.spec).bins.length} bins, ${computed} result(s) computed${reviewed ? ', review steps added' : ''}${measured ? ', measurement added' : ''} (${Math.round(performance.now() - started)} ms)`)
       }
     }
     if (!changed) log(`${DEMO_STUDIES.length} demo studies with their results, reviews and measurement already there`)

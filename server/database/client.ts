@@ -1,6 +1,6 @@
 import { drizzle } from 'drizzle-orm/node-postgres'
 import pg from 'pg'
-import * as schema from './schema'
+import * as schema from './schema/index'
 
 /** One pool per process. No Nitro imports: the worker, the seed and the tests reuse this. */
 export function createDB(url: string, max = 10) {
@@ -11,3 +11,6 @@ export function createDB(url: string, max = 10) {
 
 export type DB = ReturnType<typeof createDB>
 export { schema as tables }
+
+/** A transaction handle, as passed to db.transaction's callback. */
+export type Tx = Parameters<Parameters<DB['transaction']>[0]>[0]

@@ -26,15 +26,6 @@ declare module 'lucia' {
   }
 }
 
-export type SessionUser = { id: string, email: string, name: string, emailVerified: boolean }
-
-/** The signed-in user, or 401. Set by server/middleware/session.ts. */
-export function requireUser(event: H3Event): SessionUser {
-  const user = event.context.user as SessionUser | null | undefined
-  if (!user) throw createError({ statusCode: 401, statusMessage: 'Sign in to continue' })
-  return user
-}
-
 /** Start a session for `userId` and set its cookie. */
 export async function startSession(event: H3Event, userId: string) {
   const session = await useLucia().createSession(userId, {})

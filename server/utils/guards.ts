@@ -1,35 +1,60 @@
+// The one guard style of the routes: each guard takes the event, reads the signed-in user and the
+// route's parameters, and returns the rows or throws 401 (not signed in), 404 (missing, malformed
+// id, or another workspace's) or 403 (role too low).
 import type { H3Event } from 'h3'
-import { and, eq } from 'drizzle-orm'
-import { roleAtLeast, type Role } from '../../shared/utils/roles'
-import { tables as t } from '../database/client'
-import type { Membership, Workspace } from '../database/schema'
+import {
+  findMeasurement, findMembership, findResult, findSet, findSetBuild, findStudy
+} from '../domain/lookups'
+import type { Role } from '../../shared/utils/roles'
 
-export type WorkspaceAccess = { user: SessionUser, workspace: Workspace, membership: Membership }
+export type SessionUser = { id: string, email: string, name: string, emailVerified: boolean }
 
-/**
- * The membership of `userId` in workspace `workspaceId` with at least `minRole`:
- * 404 when the workspace is missing or the user is not a member, 403 when the role is too low.
- */
-export async function requireMembership(workspaceId: string, userId: string, minRole: Role) {
-  const [row] = await useDB()
-    .select({ membership: t.memberships, workspace: t.workspaces })
-    .from(t.memberships)
-    .innerJoin(t.workspaces, eq(t.workspaces.id, t.memberships.workspaceId))
-    .where(and(eq(t.memberships.workspaceId, workspaceId), eq(t.memberships.userId, userId)))
-  if (!row) throw createError({ statusCode: 404, statusMessage: 'Workspace not found' })
-  if (!roleAtLeast(row.membership.role, minRole)) {
-    throw createError({ statusCode: 403, statusMessage: `This needs the ${minRole} role or higher`, data: { role: row.membership.role, required: minRole } })
-  }
-  return row
+/** The signed-in user, or 401. Set by server/middleware/02.session.ts. */
+export function requireUser(event: H3Event): SessionUser {
+  const user = event.context.user as SessionUser | null | undefined
+  if (!user) throw createError({ statusCode: 401, statusMessage: 'Sign in to continue' })
+  return user
 }
 
-/**
- * For routes under /api/workspaces/[wid]/…: the signed-in user (401), the `wid` parameter
- * (404 if malformed) and the membership with at least `minRole` (404/403).
- */
-export async function requireWorkspace(event: H3Event, minRole: Role): Promise<WorkspaceAccess> {
+/** Routes under /api/workspaces/[wid]/…: the user, the workspace and the membership with at least `minRole`. */
+export async function requireWorkspace(event: H3Event, minRole: Role) {
   const user = requireUser(event)
   const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const { membership, workspace } = await requireMembership(workspaceId, user.id, minRole)
+  const { membership, workspace } = await findMembership(useDB(), workspaceId, user.id, minRole)
   return { user, workspace, membership }
+}
+
+/** …/sets/[sid]: an error set of the workspace (without its file bytes). */
+export async function requireSet(event: H3Event, minRole: Role) {
+  const access = await requireWorkspace(event, minRole)
+  const set = await findSet(useDB(), access.workspace.id, uuidParam(event, 'sid', 'Error set'))
+  return { ...access, set }
+}
+
+/** …/sets/builds/[bid]: a set build of the workspace. */
+export async function requireSetBuild(event: H3Event, minRole: Role) {
+  const access = await requireWorkspace(event, minRole)
+  const build = await findSetBuild(useDB(), access.workspace.id, uuidParam(event, 'bid', 'Set build'))
+  return { ...access, build }
+}
+
+/** …/studies/[id]: a study of the workspace. */
+export async function requireStudy(event: H3Event, minRole: Role) {
+  const access = await requireWorkspace(event, minRole)
+  const study = await findStudy(useDB(), access.workspace.id, uuidParam(event, 'id', 'Study'))
+  return { ...access, study }
+}
+
+/** …/results/[rid]: a result of the workspace, with its study. */
+export async function requireResult(event: H3Event, minRole: Role) {
+  const access = await requireWorkspace(event, minRole)
+  const row = await findResult(useDB(), access.workspace.id, uuidParam(event, 'rid', 'Result'))
+  return { ...access, ...row }
+}
+
+/** …/studies/[id]/measurements/[mid]: a measurement of a study of the workspace. */
+export async function requireMeasurement(event: H3Event, minRole: Role) {
+  const access = await requireStudy(event, minRole)
+  const measurement = await findMeasurement(useDB(), access.study.id, uuidParam(event, 'mid', 'Measurement'))
+  return { ...access, measurement }
 }

@@ -1,16 +1,22 @@
 /**
  * CSV reading and writing. The reader sits behind the {@link CsvReader} interface; its parsing is
- * done by papaparse, and this module adds what papaparse leaves out: the physical line of every
- * record, located problems with messages a physicist understands, and line ends of more than one
- * kind in one file.
+ * done by csv-parse (its browser build, so the same code runs in the page and in Node), and this
+ * module turns what csv-parse reports into records with the line each starts on and problems
+ * located by line and character, with messages a physicist understands.
  *
  * Accepted beyond RFC 4180 (common practice for files written by spreadsheets): LF or lone CR
- * line ends as well as CRLF, a leading byte-order mark, blank lines (skipped), spaces between a
- * closing quote and the next delimiter, and optionally comment lines starting with `#` (skipped
- * only at the start of a record).
+ * line ends as well as CRLF, even mixed in one file, a leading byte-order mark, blank lines
+ * (skipped), and optionally comment lines starting with `#` (skipped only at the start of a
+ * record). Text between a closing quote and the next delimiter is a problem, spaces included.
  */
-import Papa from 'papaparse'
-import type { ParseError } from 'papaparse'
+import { parse, type CsvError, type InfoRecord, type Options } from 'csv-parse/browser/esm/sync'
+
+/** A record as csv-parse hands it to `on_record` with `raw: true` (its types show the bare fields). */
+interface RawRecord {
+  record: string[]
+  /** The text read for it, from the end of the record before: skipped lines included. */
+  raw: string
+}
 
 /** One record and the 1-based physical line on which it starts. */
 export interface CsvRecord {
@@ -45,7 +51,7 @@ export type CsvReader = (text: string, options?: CsvReadOptions) => CsvReadResul
 const STRAY_QUOTE = 'quote inside an unquoted field; quote the whole field and double the quote'
 const NEVER_CLOSED = 'quoted field is never closed'
 
-/** Start offset of every line of `text` (line ends are '\n' only), for offset → line, column. */
+/** Start offset of every line of `text` (line ends are '\n' only). */
 function lineStarts(text: string): number[] {
   const starts = [0]
   for (let i = text.indexOf('\n'); i >= 0; i = text.indexOf('\n', i + 1)) starts.push(i + 1)
@@ -65,16 +71,33 @@ function locate(starts: readonly number[], offset: number): { line: number, colu
 }
 
 /**
+ * Index in `rest` of the quote that opened a field never closed. Inside such a field quotes
+ * only come doubled (a lone one would have closed it or been a problem of its own), and the
+ * opening quote follows a delimiter or a line start: it begins the last run of an odd number
+ * of quotes.
+ */
+function unclosedQuote(rest: string): number {
+  for (let end = rest.length - 1; end >= 0; end--) {
+    if (rest[end] !== '"') continue
+    let start = end
+    while (start > 0 && rest[start - 1] === '"') start--
+    if ((end - start + 1) % 2 === 1) return start
+    end = start
+  }
+  return 0
+}
+
+/**
  * Reads RFC 4180 text. Quoted fields may hold the delimiter, `""` for a quote, and line breaks
  * (returned as they are in the file). A quote inside an unquoted field, text after a closing
  * quote, and a quote never closed are problems; after one, reading resumes at the next line.
  *
- * Method: papaparse reads the text with every line end made '\n' (papaparse takes one kind of
- * line end per file); each row papaparse returns is then walked field by field from the row's
- * start, which gives its line, finds quotes papaparse accepts inside unquoted fields, and puts
- * back the file's own line ends inside quoted fields. After a problem papaparse starts again at
- * the next line. Papaparse's Delimiter and FieldMismatch errors cannot arise here (the delimiter
- * is given and there is no header mode; callers check field counts with their own messages).
+ * Method: csv-parse reads the text with every line end made '\n' (it takes one kind of line end
+ * per file, and counts a CRLF inside a quoted field as two lines). Each record's line is the
+ * line csv-parse reports at its end, less the line breaks inside its fields; the file's own
+ * line ends are then put back into quoted fields. On a problem csv-parse stops; its `raw` text
+ * (everything read since the last record) ends at the offending character, which gives the
+ * character column, and reading starts again at the next line.
  *
  * @example readCsv('a,"b ""c"""\r\n1,2').records // → [{ fields: ['a', 'b "c"'], line: 1 }, { fields: ['1', '2'], line: 2 }]
  */
@@ -97,86 +120,70 @@ export const readCsv: CsvReader = (text, options = {}) => {
   const records: CsvRecord[] = []
   const problems: CsvProblem[] = []
 
-  const nextLine = (offset: number) => {
-    const eol = flat.indexOf('\n', offset)
-    return eol < 0 ? n : eol + 1
-  }
-  const skipComments = (offset: number) => {
-    let at = offset
-    while (comment !== undefined && at < n && flat.startsWith(comment, at)) at = nextLine(at)
-    return at
-  }
   /** The record's fields with the k-th line break in them put back as the file wrote it. */
   const ownLineEnds = (fields: string[], line: number) => {
     if (!lineEnds) return fields
     let k = line - 1 // lineEnds[line - 1] ends the record's first line
     return fields.map(f => (f.includes('\n') ? f.replace(/\n/g, () => lineEnds[k++]!) : f))
   }
-  /** The first problem of a row starting at `start`: where it is, what it is, where to resume. */
-  const rowProblem = (start: number, base: number, fields: readonly string[], error: ParseError | undefined) => {
-    // Papaparse reports quote errors just after the opening quote of the field.
-    const open = error?.index === undefined ? n : base + error.index - 1
-    let at = start
-    for (const value of fields) {
-      if (at >= open) break
-      if (flat[at] === '"') {
-        at += value.length + (value.split('"').length - 1) + 2
-        while (at < n && flat[at] !== delimiter && flat[at] !== '\n') at++ // spaces papaparse allows
+  const breaks = (field: string) => field.split('\n').length - 1
+
+  /** Reads from the start of line `firstLine` until the first problem; returns the offset to read on from. */
+  const readFrom = (firstLine: number): number => {
+    const from = starts[firstLine - 1]!
+    let consumed = from // offset just after the last record read
+    const onRecord = ({ record, raw }: RawRecord, info: InfoRecord) => {
+      consumed += raw.length
+      const endLine = firstLine + info.lines - 1
+      const line = endLine - record.reduce((sum, f) => sum + breaks(f), 0)
+      records.push({ fields: ownLineEnds(record, line), line })
+      return null
+    }
+    try {
+      parse(flat.slice(from), {
+        delimiter,
+        quote: '"',
+        escape: '"',
+        comment: comment ?? null,
+        comment_no_infix: true,
+        skip_empty_lines: true,
+        relax_column_count: true,
+        bom: false,
+        raw: true,
+        on_record: onRecord as unknown as Options['on_record']
+      })
+      return n
+    }
+    catch (e) {
+      const error = e as CsvError & { raw?: string }
+      const raw = error.raw ?? ''
+      const last = consumed + raw.length - 1 // the character csv-parse stopped at
+      let at: number
+      let message: string
+      if (error.code === 'INVALID_OPENING_QUOTE') {
+        at = last
+        message = STRAY_QUOTE
+      }
+      else if (error.code === 'CSV_INVALID_CLOSING_QUOTE') {
+        at = last + 1
+        message = `unexpected '${flat[at]}' after a closing quote; a quoted field must end at a '${delimiter}' or a line end`
+      }
+      else if (error.code === 'CSV_QUOTE_NOT_CLOSED') {
+        problems.push({ ...locate(starts, consumed + unclosedQuote(raw)), message: NEVER_CLOSED })
+        return n
       }
       else {
-        const quote = value.indexOf('"')
-        if (quote >= 0) return { at: at + quote, message: STRAY_QUOTE, resume: nextLine(at + quote) }
-        at += value.length
+        throw e
       }
-      at++
+      const where = locate(starts, at)
+      problems.push({ ...where, message })
+      return where.line < starts.length ? starts[where.line]! : n
     }
-    if (!error) return undefined
-    if (error.code === 'MissingQuotes') return { at: open, message: NEVER_CLOSED, resume: n }
-    if (error.code === 'InvalidQuotes') {
-      let close = flat.indexOf('"', open + 1)
-      while (flat[close + 1] === '"') close = flat.indexOf('"', close + 2)
-      const after = close + 1
-      return {
-        at: after,
-        message: `unexpected '${flat[after]}' after a closing quote; a quoted field must end at a '${delimiter}' or a line end`,
-        resume: nextLine(after)
-      }
-    }
-    return { at: start, message: error.message, resume: nextLine(start) }
   }
 
-  /** Reads from `from` until the first problem; returns where to read on. */
-  const readFrom = (from: number) => {
-    // Papaparse drops a byte-order mark at the start of its input; offsets count from after it.
-    const base = from + (flat.charCodeAt(from) === 0xfeff ? 1 : 0)
-    let rowEnd = base
-    let resume = n
-    Papa.parse<string[]>(flat.slice(from), {
-      delimiter,
-      newline: '\n',
-      quoteChar: '"',
-      escapeChar: '"',
-      comments: comment ?? false,
-      skipEmptyLines: false,
-      step: (result, parser) => {
-        const start = skipComments(rowEnd)
-        rowEnd = base + result.meta.cursor
-        const problem = rowProblem(start, base, result.data, result.errors[0])
-        if (problem) {
-          problems.push({ ...locate(starts, problem.at), message: problem.message })
-          resume = problem.resume
-          parser.abort()
-          return
-        }
-        if (start >= n || flat[start] === '\n') return // blank line
-        const { line } = locate(starts, start)
-        records.push({ fields: ownLineEnds(result.data, line), line })
-      }
-    })
-    return resume
+  for (let from = 0; from < n && problems.length < maxProblems;) {
+    from = readFrom(locate(starts, from).line)
   }
-
-  for (let from = 0; from < n && problems.length < maxProblems;) from = readFrom(from)
   return { records, problems }
 }
 

@@ -1,4 +1,5 @@
-import { detectDelimiter, readCsv, writeCsv } from './csv'
+import { writeCsv } from '../export/csv'
+import { detectDelimiter, readCsv } from './csv'
 import type { CsvReader } from './csv'
 import type { BinColumn, BinRow, RowCheck } from './types'
 import { emptyRow, normalizeCell, validateRows } from './validate'
@@ -88,8 +89,10 @@ export function importBinsCsv(text: string, columns: readonly BinColumn[], optio
 }
 
 /**
- * Bins as CSV: a header of column keys, one line per row, CRLF line ends, numbers in their
- * shortest exact form (so import ∘ export is the identity), optional `# ` comment lines first.
+ * Bins as CSV: a header of column keys, one line per row, optional `# ` comment lines first.
+ * Written by Sheaf's one CSV writer (shared/export/csv.ts: CRLF line ends, RFC 4180 quoting,
+ * numbers in their shortest exact form so import ∘ export is the identity, empty cells for
+ * empty or non-finite values).
  */
 export function exportBinsCsv(rows: readonly Readonly<BinRow>[], columns: readonly BinColumn[], options: { comments?: readonly string[] } = {}): string {
   return writeCsv([columns.map(c => c.key), ...rows.map(r => columns.map(c => r[c.key] ?? null))], { comments: options.comments })

@@ -1,36 +1,37 @@
-import { writeCsv } from '../bins/csv'
+import { writeCsv } from './csv'
 import { provenanceLines, provenanceObject } from './provenance'
 import { RESULT_CAUTION } from './caution'
-import type { ExportBand, ResultForExport } from './types'
+import type { LabelledBand, ResultForExport } from './types'
+
+const BAND_PARTS = ['central', 'plus', 'minus', 'relPlus', 'relMinus'] as const
 
 /** Refuses a result whose bands do not have one value per bin, or negative errors. */
 export function checkResult(result: ResultForExport): void {
   const n = result.bins.length
   if (!result.bands.length) throw new RangeError('A result export needs at least one band')
-  for (const band of result.bands) {
-    for (const part of ['central', 'plus', 'minus'] as const) {
-      if (band[part].length !== n) throw new RangeError(`Band ${band.id} has ${band[part].length} ${part} values for ${n} bins`)
+  for (const { id, band } of result.bands) {
+    for (const part of BAND_PARTS) {
+      if (band[part].length !== n) throw new RangeError(`Band ${id} has ${band[part].length} ${part} values for ${n} bins`)
     }
     for (let i = 0; i < n; i++) {
-      if (band.plus[i]! < 0 || band.minus[i]! < 0) throw new RangeError(`Band ${band.id}, bin ${i + 1}: errors are magnitudes and must be ≥ 0`)
+      if (band.plus[i]! < 0 || band.minus[i]! < 0) throw new RangeError(`Band ${id}, bin ${i + 1}: errors are magnitudes and must be ≥ 0`)
     }
   }
 }
 
-/** 100·Δ/|central|, or null when the central value is zero or not finite. */
-export const relativePercent = (delta: number, central: number) =>
-  central !== 0 && Number.isFinite(central) && Number.isFinite(delta) ? (100 * delta) / Math.abs(central) : null
+/** A relative width (fraction of |central|) in percent, or null where it is undefined. */
+const percent = (relative: number | null) => (relative !== null && Number.isFinite(relative) ? 100 * relative : null)
 
-const bandCells = (band: ExportBand, i: number) => {
-  const c = band.central[i]!
-  return [c, band.plus[i]!, band.minus[i]!, relativePercent(band.plus[i]!, c), relativePercent(band.minus[i]!, c)]
-}
+/** Central, plus, minus and the two relative widths in percent of one bin of a band. */
+const bandCells = ({ band }: LabelledBand, i: number) =>
+  [band.central[i]!, band.plus[i]!, band.minus[i]!, percent(band.relPlus[i]!), percent(band.relMinus[i]!)] as const
 
 /**
  * Bands as CSV, one line per bin: the bin's kinematic columns (by key), then for every band
  * `central[id]`, `plus[id]`, `minus[id]`, `rel_plus_pct[id]`, `rel_minus_pct[id]` (errors as
- * magnitudes, relative errors in percent of |central|). Provenance and caution come first as
- * `# ` comment lines. Numbers keep full precision.
+ * magnitudes, relative errors in percent of |central|, empty where undefined). Provenance and
+ * caution come first as `# ` comment lines. Written by {@link writeCsv} (CRLF, RFC 4180 quoting,
+ * numbers in their shortest exact form, empty cells for non-finite values).
  */
 export function bandsToCsv(result: ResultForExport): string {
   checkResult(result)

@@ -6,6 +6,7 @@
  * Look (common practice for figures in an analysis note): white background, ticks outside,
  * mirrored axes with a frame, Public Sans, Sheaf's palette.
  */
+import type { LabelledBand } from './types'
 
 export type PlotTrace = Record<string, unknown>
 export interface Figure {
@@ -72,16 +73,6 @@ export interface BinPositions {
   hi?: ArrayLike<number>
 }
 
-/** One set's (or one flavour's) band: central value and error magnitudes, one entry per bin. */
-export interface BandSeries {
-  id: string
-  label: string
-  central: ArrayLike<number>
-  plus: ArrayLike<number>
-  minus: ArrayLike<number>
-  color?: string
-}
-
 /** A band shown apart from the PDF band (scale variation): absolute lower and upper values. */
 export interface EnvelopeBand {
   label: string
@@ -98,7 +89,8 @@ export interface BandFigureInput {
   positions: BinPositions
   variable: AxisSpec
   observable: AxisSpec
-  series: BandSeries[]
+  /** One set's (or one flavour's) band each; only central, plus and minus are drawn. */
+  series: LabelledBand[]
   /** 'band': filled areas (steps for bins); 'bars': markers with asymmetric error bars. */
   draw?: 'band' | 'bars'
   /** Id of the series the ratio panel divides by; no ratio panel when absent. */
@@ -156,9 +148,9 @@ function centralLine(positions: BinPositions, segments: number[][], value: Trans
 
 function checkLengths(input: BandFigureInput, n: number) {
   if (input.positions.hi && input.positions.hi.length !== n) throw new RangeError(`${input.positions.hi.length} upper bin edges for ${n} lower edges`)
-  for (const s of input.series) {
+  for (const { label, band } of input.series) {
     for (const part of ['central', 'plus', 'minus'] as const) {
-      if (s[part].length !== n) throw new RangeError(`Series ${s.label} has ${s[part].length} ${part} values for ${n} bins`)
+      if (band[part].length !== n) throw new RangeError(`Series ${label} has ${band[part].length} ${part} values for ${n} bins`)
     }
   }
   if (input.envelope && (input.envelope.lower.length !== n || input.envelope.upper.length !== n)) throw new RangeError(`The ${input.envelope.label} band needs ${n} lower and upper values`)
@@ -179,7 +171,8 @@ export function bandFigure(input: BandFigureInput): Figure {
     { axes: { xaxis: 'x', yaxis: 'y' }, scale: (_, v) => v }
   ]
   if (reference) {
-    panels.push({ axes: { xaxis: 'x2', yaxis: 'y2' }, scale: (i, v) => (reference.central[i] ? v / reference.central[i]! : null) })
+    const divisor = reference.band.central
+    panels.push({ axes: { xaxis: 'x2', yaxis: 'y2' }, scale: (i, v) => (divisor[i] ? v / divisor[i]! : null) })
   }
   const data: PlotTrace[] = []
   const draw = input.draw ?? 'band'
@@ -193,9 +186,10 @@ export function bandFigure(input: BandFigureInput): Figure {
   panels.forEach((panel, p) => {
     input.series.forEach((s, k) => {
       const color = s.color ?? FIGURE_PALETTE[k % FIGURE_PALETTE.length]!
-      const up: Transform = i => panel.scale(i, s.central[i]! + s.plus[i]!)
-      const down: Transform = i => panel.scale(i, s.central[i]! - s.minus[i]!)
-      const mid: Transform = i => panel.scale(i, s.central[i]!)
+      const { central, plus, minus } = s.band
+      const up: Transform = i => panel.scale(i, central[i]! + plus[i]!)
+      const down: Transform = i => panel.scale(i, central[i]! - minus[i]!)
+      const mid: Transform = i => panel.scale(i, central[i]!)
       const common = { ...panel.axes, legendgroup: s.id, name: s.label }
       if (draw === 'bars') {
         const idx = Array.from({ length: n }, (_, i) => i)
@@ -206,7 +200,7 @@ export function bandFigure(input: BandFigureInput): Figure {
           marker: { color, size: 6, symbol: ['circle', 'square', 'diamond', 'triangle-up'][k % 4] },
           error_y: { type: 'data', symmetric: false, array: idx.map(i => (up(i) ?? Number.NaN) - (y[i] ?? Number.NaN)), arrayminus: idx.map(i => (y[i] ?? Number.NaN) - (down(i) ?? Number.NaN)), color, thickness: 1.2, width: 3 },
           ...(input.positions.hi ? { error_x: { type: 'data', symmetric: false, array: idx.map(i => input.positions.hi![i]! - x[i]!), arrayminus: idx.map(i => x[i]! - input.positions.lo[i]!), color, thickness: 0.8, width: 0 } } : {}),
-          customdata: idx.map(i => [s.central[i], s.plus[i], s.minus[i], i]),
+          customdata: idx.map(i => [central[i], plus[i], minus[i], i]),
           hovertemplate: `${s.label}<br>%{customdata[0]:.4g} +%{customdata[1]:.2g} −%{customdata[2]:.2g}<extra></extra>`
         })
         return
@@ -216,7 +210,7 @@ export function bandFigure(input: BandFigureInput): Figure {
       const line = centralLine(input.positions, segments, mid)
       data.push({
         ...common, type: 'scatter', mode: 'lines', x: line.x, y: line.y, line: { width: 1.6, color }, showlegend: false,
-        customdata: line.index.map(i => (i === null ? null : [s.central[i], s.plus[i], s.minus[i], i])),
+        customdata: line.index.map(i => (i === null ? null : [central[i], plus[i], minus[i], i])),
         hovertemplate: `${s.label}<br>%{customdata[0]:.4g} +%{customdata[1]:.2g} −%{customdata[2]:.2g}<extra></extra>`
       })
     })
@@ -326,15 +320,6 @@ export function tryFigure(build: () => Figure): { figure: Figure | null, error: 
     if (e instanceof RangeError) return { figure: null, error: e.message }
     throw e
   }
-}
-
-const FLAVOUR_NAMES: Record<number, string> = { 1: 'd', 2: 'u', 3: 's', 4: 'c', 5: 'b', 6: 't', 21: 'g', 22: 'γ' }
-
-/** Short name of a PDG parton code: 2 → 'u', -2 → 'ū', 21 → 'g'. */
-export function flavourName(pdg: number): string {
-  const name = FLAVOUR_NAMES[Math.abs(pdg)]
-  if (!name || (pdg < 0 && Math.abs(pdg) > 6)) throw new RangeError(`PDG code ${pdg} is not a parton Sheaf knows (1–6, −1 to −6, 21, 22)`)
-  return pdg < 0 ? `${name}\u0304` : name
 }
 
 /** What a plot component exposes for figure export (PlotFrame implements it). */

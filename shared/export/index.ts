@@ -1,7 +1,7 @@
 // Result exports: pure formatters (no DOM, no I/O) and the shared caution text.
 
 // Types
-export type { ApprovalState, ExportBand, ExportObservable, ExportProvenance, MatrixForExport, ResultForExport } from './types'
+export type { ApprovalState, ExportObservable, ExportProvenance, LabelledBand, MatrixForExport, ResultForExport } from './types'
 // Caution shown with every result
 export { RESULT_CAUTION, RESULT_CAUTION_SHORT } from './caution'
 // Provenance
@@ -9,11 +9,14 @@ export { approvalText, confidenceText, provenanceLines, provenanceObject, setTex
 // Number rounding for printed tables
 export { decimalExponent, roundDecimal, roundMeasurement, roundSignificant } from './numbers'
 export type { RoundedMeasurement, RoundingOptions } from './numbers'
+// CSV writer (RFC 4180, CRLF) used by every CSV Sheaf writes
+export { CSV_EOL, csvLine, csvNumber, writeCsv } from './csv'
+export type { CsvCell, CsvWriteOptions } from './csv'
 // Formats
-export { bandsToCsv, bandsToJson, bandsToJsonText, checkResult, relativePercent } from './bands'
+export { bandsToCsv, bandsToJson, bandsToJsonText, checkResult } from './bands'
 export { bandsToLatex, latexMeasurement, latexNumber, latexText } from './latex'
 export type { LatexTableOptions } from './latex'
 export { matrixToCsv } from './matrices'
 // Figures (plain Plotly-shaped objects)
-export { CORRELATION_SCALE, FIGURE_FONT, FIGURE_INK, FIGURE_PALETTE, axisTitle, bandFigure, correlationFigure, eigenvectorFigure, flavourName, forwardImages, houseAxis, houseConfig, houseLayout, tryFigure, withAlpha } from './figures'
-export type { AxisSpec, BandFigureInput, BandSeries, BinPositions, EigenvectorFigureInput, EigenvectorShift, EnvelopeBand, Figure, FigureImages, PlotTrace } from './figures'
+export { CORRELATION_SCALE, FIGURE_FONT, FIGURE_INK, FIGURE_PALETTE, axisTitle, bandFigure, correlationFigure, eigenvectorFigure, forwardImages, houseAxis, houseConfig, houseLayout, tryFigure, withAlpha } from './figures'
+export type { AxisSpec, BandFigureInput, BinPositions, EigenvectorFigureInput, EigenvectorShift, EnvelopeBand, Figure, FigureImages, PlotTrace } from './figures'

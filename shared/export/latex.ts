@@ -111,7 +111,7 @@ export function bandsToLatex(result: ResultForExport, options: LatexTableOptions
   ]
   const body = result.bins.map((bin, i) => [
     ...result.binColumns.map(c => latexNumber(bin[c.key])),
-    ...bands.map(b => latexMeasurement(b.central[i]!, b.plus[i]!, b.minus[i]!, options.rounding))
+    ...bands.map(({ band }) => latexMeasurement(band.central[i]!, band.plus[i]!, band.minus[i]!, options.rounding))
   ])
   const prescriptions = bands.length === 1 ? latexText(p.prescription) : bands.map(b => latexText(b.label)).join(', ')
   const caption = [

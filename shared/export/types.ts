@@ -1,4 +1,5 @@
 import type { BinColumn, BinRow } from '../bins/types'
+import type { BandView } from '../physics/uncertainty/band'
 
 /**
  * Inputs of the export formatters. The lead's routes fill them from the stored result; nothing
@@ -39,17 +40,18 @@ export interface ExportObservable {
 }
 
 /**
- * One prescription's band over the bins. `plus` and `minus` are magnitudes (ΔX⁺, ΔX⁻ ≥ 0), each
- * array with one entry per bin, in bin order.
+ * A band with what a reader sees of it, for every export format and every figure. `band` is the
+ * engine's band type in any array form (engine or JSON, {@link BandView}), one entry per bin in
+ * bin order; its `plus` and `minus` are magnitudes (ΔX⁺, ΔX⁻ ≥ 0).
  */
-export interface ExportBand {
-  /** Short id used in CSV headers and JSON keys ("hessian-asym"). */
+export interface LabelledBand<B extends BandView = BandView> {
+  /** Short id used in CSV headers, JSON keys and figure legends ("hessian-asym"). */
   id: string
   /** What a reader sees ("Hessian, asymmetric"). */
   label: string
-  central: ArrayLike<number>
-  plus: ArrayLike<number>
-  minus: ArrayLike<number>
+  /** Colour in figures (#rrggbb); default: the next colour of the palette. */
+  color?: string
+  band: B
 }
 
 /** A result version ready to export: the bins, their kinematics and one band per prescription. */
@@ -60,7 +62,7 @@ export interface ResultForExport {
   binColumns: BinColumn[]
   bins: BinRow[]
   /** At least one band. */
-  bands: ExportBand[]
+  bands: LabelledBand[]
 }
 
 /** A bin-to-bin matrix (covariance in unit², or correlation) of one result. */

@@ -1,7 +1,8 @@
 /**
  * One-loop running of the strong coupling α_s(μ²) and the number of active flavours, for fixed-
- * and variable-flavour schemes (DOMAIN.md §2; Ellis–Stirling–Webber, "QCD and Collider Physics",
- * ch. 2): dα_s/d ln μ² = −β₀ α_s²/(4π), β₀ = 11 − 2n_f/3, so within a range of fixed n_f
+ * and variable-flavour schemes (Ellis–Stirling–Webber, "QCD and Collider Physics", ch. 2; see
+ * shared/physics/README.md, "Running coupling"): dα_s/d ln μ² = −β₀ α_s²/(4π),
+ * β₀ = 11 − 2n_f/3, so within a range of fixed n_f
  * 1/α_s(μ²) = 1/α_s(μ₀²) + (β₀/4π) ln(μ²/μ₀²). At LO α_s is continuous across the heavy-quark
  * thresholds μ² = m_h² of a variable-flavour scheme; only its slope changes there.
  */

@@ -82,7 +82,7 @@ export const SIN2_THETA_W_MSBAR = 0.23129
  * (ħc)² = 0.389 379 372 1… GeV² mbarn (exact since the 2019 SI), as printed in PDG "1. Physical
  * Constants", Table 1.1 of the 2022 edition (stored copy "rpp2022-rev-phys-constants",
  * https://www.scribd.com/document/620895509/rpp2022-rev-phys-constants; the 2024 table was not
- * seen), and 1 mb = 10⁹ pb. DOMAIN.md quotes the rounded 0.3893794 mb GeV².
+ * seen), and 1 mb = 10⁹ pb (see shared/physics/README.md, "Units and codes").
  * @example 1e-9 * HBARC2_PB_GEV2 // 0.3893793721 (mb GeV²)
  */
 export const HBARC2_PB_GEV2 = 0.3893793721e9

@@ -11,9 +11,9 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_USERS, DEMO_WORKSPACE } from '../../scripts/seed/01-demo-users'
 import { DEMO_SETS } from '../../scripts/seed/02-demo-sets'
 import { DEMO_STUDIES } from '../../scripts/seed/03-demo-studies'
-import { bytesToFloat64 } from '../../server/utils/workflow/float64'
-import { loadErrorSet } from '../../server/utils/workflow/set-store'
-import { kernelContextOf, pairRoles } from '../../server/utils/workflow/study-check'
+import { bytesToFloat64 } from '../../server/domain/results/float64'
+import { loadErrorSet } from '../../server/domain/sets/store'
+import { kernelContextOf, pairRoles } from '../../server/domain/studies/check'
 import { importBinsCsv } from '../../shared/bins'
 import { kernelDefinition } from '../../shared/physics/kernels/registry'
 import { evaluateDirect } from '../../shared/physics/study/direct'
@@ -154,7 +154,7 @@ describe('demo seed', () => {
       for (const b of bands) {
         expect(isPrescription(b.prescription)).toBe(true)
         const fresh = computeBands(matrix, { kind: header.kind, prescription: b.prescription as never, clFrom: header.confidenceLevelPercent, clTo: b.clPercent, alphasMembers: header.alphasMembers })
-        const json = b.bands as { central: number[], plus: number[], minus: number[] }
+        const json = b.bands
         for (const key of ['central', 'plus', 'minus'] as const) {
           expect(json[key]).toHaveLength(matrix.bins)
           json[key].forEach((v, i) => expect(close(v, fresh[key][i]!, 1e-12), `${r.id} ${b.prescription} ${key}[${i}]`).toBe(true))
@@ -184,7 +184,7 @@ describe('demo seed', () => {
       let sum = 0
       for (let k = 0; k < pairs; k++) sum += (v[(2 * k + 1) * bins + b]! - v[(2 * k + 2) * bins + b]!) ** 2
       const expected68 = 0.5 * Math.sqrt(sum) / 1.64485
-      expect(close((band!.bands as { plus: number[] }).plus[b]!, expected68, 1e-5), `bin ${b + 1}`).toBe(true)
+      expect(close(band!.bands.plus[b]!, expected68, 1e-5), `bin ${b + 1}`).toBe(true)
     }
   })
 

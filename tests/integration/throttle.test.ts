@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest'
 import { ApiClient } from '../support/http'
 import { createUser, TEST_PASSWORD, uniqueEmail } from '../support/users'
 
-// Limits from server/utils/signin-throttle.ts: 5 failures per account, 30 per address, 15 min.
+// Limits from server/utils/throttles.ts: 5 failures per account, 30 per address, 15 min.
 describe('sign-in throttle', () => {
   it('locks an account after five failures, even for the right password, with Retry-After', async () => {
     const user = await createUser({ signIn: false })

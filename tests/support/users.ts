@@ -1,5 +1,5 @@
 import { randomUUID } from 'node:crypto'
-import { hashPassword } from '../../server/utils/password'
+import { hashPassword } from '../../server/domain/accounts/password'
 import type { Role } from '../../shared/utils/roles'
 import { tables, testDB } from './db'
 import { ApiClient } from './http'

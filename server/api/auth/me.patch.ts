@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { tables as t } from '../../database/client'
+import { publicUser } from '../../domain/accounts/accounts'
 
 export default defineEventHandler(async (event) => {
   const user = requireUser(event)

@@ -1,4 +1,8 @@
 import { tables as t } from '../../database/client'
+import { audit } from '../../domain/audit'
+import { fail } from '../../domain/errors'
+import { publicUser, sendVerificationMail } from '../../domain/accounts/accounts'
+import { hashPassword } from '../../domain/accounts/password'
 
 export default defineEventHandler(async (event) => {
   const body = await readValid(event, registerSchema)
@@ -9,14 +13,10 @@ export default defineEventHandler(async (event) => {
       .onConflictDoNothing({ target: t.users.email })
       .returning()
     if (!row) {
-      throw createError({
-        statusCode: 409,
-        statusMessage: 'An account with this e-mail already exists',
-        data: { fields: { email: 'Already registered: sign in or reset the password' } }
-      })
+      fail(409, 'An account with this e-mail already exists', { fields: { email: 'Already registered: sign in or reset the password' } })
     }
-    await sendVerificationMail(tx, row)
-    await audit({ actorId: row.id, action: 'user.registered', subjectType: 'user', subjectId: row.id }, tx)
+    await sendVerificationMail(tx, useSettings(), row)
+    await audit(tx, { actorId: row.id, action: 'user.registered', subjectType: 'user', subjectId: row.id })
     return row
   })
   setResponseStatus(event, 201)

@@ -1,5 +1,8 @@
 import { eq, sql } from 'drizzle-orm'
 import { tables as t } from '../../database/client'
+import { audit } from '../../domain/audit'
+import { consumeToken, publicUser } from '../../domain/accounts/accounts'
+import { hashPassword } from '../../domain/accounts/password'
 
 export default defineEventHandler(async (event) => {
   const { token, password } = await readValid(event, resetSchema)
@@ -11,7 +14,7 @@ export default defineEventHandler(async (event) => {
       .set({ passwordHash, emailVerifiedAt: sql`coalesce(${t.users.emailVerifiedAt}, now())` })
       .where(eq(t.users.id, userId)).returning()
     await tx.delete(t.sessions).where(eq(t.sessions.userId, userId))
-    await audit({ actorId: userId, action: 'user.password_reset', subjectType: 'user', subjectId: userId }, tx)
+    await audit(tx, { actorId: userId, action: 'user.password_reset', subjectType: 'user', subjectId: userId })
     return row!
   })
   await clearSigninFailures(user.email)

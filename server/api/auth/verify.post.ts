@@ -1,5 +1,7 @@
 import { eq, sql } from 'drizzle-orm'
 import { tables as t } from '../../database/client'
+import { audit } from '../../domain/audit'
+import { consumeToken, publicUser } from '../../domain/accounts/accounts'
 
 export default defineEventHandler(async (event) => {
   const { token } = await readValid(event, tokenSchema)
@@ -8,7 +10,7 @@ export default defineEventHandler(async (event) => {
     const [row] = await tx.update(t.users)
       .set({ emailVerifiedAt: sql`coalesce(${t.users.emailVerifiedAt}, now())` })
       .where(eq(t.users.id, userId)).returning()
-    await audit({ actorId: userId, action: 'user.email_verified', subjectType: 'user', subjectId: userId }, tx)
+    await audit(tx, { actorId: userId, action: 'user.email_verified', subjectType: 'user', subjectId: userId })
     return row!
   })
   return { user: publicUser(user) }

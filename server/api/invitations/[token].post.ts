@@ -1,5 +1,6 @@
+import { acceptInvitation } from '../../domain/accounts/members'
 export default defineEventHandler(async (event) => {
   const user = requireUser(event)
   const token = tokenParam(event, 'Invitation')
-  return await acceptInvitation(token, user)
+  return await acceptInvitation(useDB(), token, user)
 })

@@ -1,4 +1,5 @@
 import { tables as t } from '../../database/client'
+import { audit } from '../../domain/audit'
 
 // Whoever creates a workspace is its owner.
 export default defineEventHandler(async (event) => {
@@ -7,7 +8,7 @@ export default defineEventHandler(async (event) => {
   const workspace = await useDB().transaction(async (tx) => {
     const [ws] = await tx.insert(t.workspaces).values({ name, createdBy: user.id }).returning()
     await tx.insert(t.memberships).values({ workspaceId: ws!.id, userId: user.id, role: 'owner' })
-    await audit({ workspaceId: ws!.id, actorId: user.id, action: 'workspace.created', subjectType: 'workspace', subjectId: ws!.id, detail: { name } }, tx)
+    await audit(tx, { workspaceId: ws!.id, actorId: user.id, action: 'workspace.created', subjectType: 'workspace', subjectId: ws!.id, detail: { name } })
     return ws!
   })
   setResponseStatus(event, 201)

@@ -1,7 +1,7 @@
 /**
- * Leading-order QCD splitting functions (DOMAIN.md §2; Ellis–Stirling–Webber, "QCD and Collider
+ * Leading-order QCD splitting functions (Ellis–Stirling–Webber, "QCD and Collider
  * Physics", ch. 4) in the normalisation ∂f/∂ln μ² = (α_s/2π) P ⊗ f, with C_F = 4/3, C_A = 3,
- * T_R = 1/2:
+ * T_R = 1/2 (see shared/physics/README.md, "Splitting functions"):
  *   P_qq = C_F [(1+z²)/(1−z)]₊,  P_qg = T_R [z² + (1−z)²] (per flavour),
  *   P_gq = C_F [1 + (1−z)²]/z,
  *   P_gg = 2C_A [z/(1−z)₊ + (1−z)/z + z(1−z)] + δ(1−z)(11C_A − 4 n_f T_R)/6.

@@ -1,6 +1,7 @@
 /**
  * x integrals of gridded momentum densities, for checking the momentum and valence sum rules
- * after evolution (DOMAIN.md §1): ∫₀¹ x(Σ + g) dx = 1, ∫(u − ū) = 2, ∫(d − d̄) = 1, ∫(s − s̄) = 0.
+ * after evolution (see shared/physics/README.md, "Sum rules"):
+ * ∫₀¹ x(Σ + g) dx = 1, ∫(u − ū) = 2, ∫(d − d̄) = 1, ∫(s − s̄) = 0.
  */
 import { EVOLVED_FLAVOURS, N_SLOTS, quarkSlots } from '../input/flavours'
 import type { MemberGrid } from '../types'

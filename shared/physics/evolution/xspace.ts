@@ -17,13 +17,14 @@
  *
  * Accuracy (tests/unit/physics/evolution, against the Mellin-space solution, mellin.ts): about
  * 4e-6 relative for 1e-5 ≤ x ≤ 0.7 on the default grid (100 nodes 1e-6…0.99, degree 7, order 6,
- * h ≤ 0.03), 1e-5 at x = 0.9; degree 5 gives ~5e-5. Speed (tests/unit/physics/evolution/speed,
- * `npm run bench` (c)): one member on 100 x × 40 Q² nodes in ~13–18 ms once compiled on the
- * project machine; in a fresh process the first member takes ~30–40 ms (the JIT) after a plan
- * of ~10–15 ms (matrices, cached per grid).
+ * h ≤ 0.03), 1e-5 at x = 0.9; degree 5 gives ~5e-5 (see shared/physics/README.md,
+ * "x-space method"). Speed (`npm run bench`, part (c)): one member on 100 x × 40 Q² nodes in
+ * ~13–18 ms once compiled on the project machine; in a fresh process the first member takes
+ * ~30–40 ms (the JIT) after a plan of ~10–15 ms (matrices, cached per grid).
  */
 import { activeFlavours, betaZero, checkScheme, flavourThresholdsGeV2, makeAlphas, strictlyBelow, strictlyBetween, type AlphasReference } from '../alphas'
-import { EVOLVED_FLAVOURS, GLUON_SLOT, N_SLOTS, partonName, quarkSlots } from '../input/flavours'
+import { EVOLVED_FLAVOURS, GLUON_SLOT, N_SLOTS, quarkSlots } from '../input/flavours'
+import { partonName } from '../partons'
 import type { FlavourScheme, MemberGrid } from '../types'
 import { convolutionMatrices, type ConvolutionMatrices } from './convolution'
 import { toEvolutionBasis } from './flavour-basis'

@@ -1,5 +1,6 @@
 /**
- * Hessian eigenvector members from a fit's parameter covariance (DOMAIN.md §5): with
+ * Hessian eigenvector members from a fit's parameter covariance (J. Pumplin et al.,
+ * hep-ph/0101032; see shared/physics/README.md, "Members from a fit"): with
  * C = Σ_k λ_k e_k e_kᵀ (eigen-decomposition) and tolerance T (Δχ² = T²),
  *   p_k^± = p₀ ± T √λ_k e_k,   k = 1..n.
  * For an observable linear in the parameters, X(p) = X₀ + gᵀ(p − p₀), the symmetric Hessian

@@ -1,11 +1,12 @@
 /**
- * Monte-Carlo replicas of a fit's parameters (DOMAIN.md §5): p_r = p₀ + L z_r with C = L Lᵀ
- * (Cholesky, ml-matrix) and z_r a vector of independent standard normal deviates from the
- * reproducible generator in prng.ts (seed → stream r for replica r).
+ * Monte-Carlo replicas of a fit's parameters (see shared/physics/README.md, "Members from a
+ * fit"): p_r = p₀ + L z_r with C = L Lᵀ (Cholesky, ml-matrix) and z_r a vector of independent
+ * standard normal deviates from the engine's generator (random.ts), stream
+ * { purpose: 'fit-replicas', index: r } of the seed for replica r.
  */
 import { CholeskyDecomposition } from 'ml-matrix'
 import { checkedCovariance, type CovarianceLike } from './covariance'
-import { standardNormals } from './prng'
+import { standardNormals } from '../random'
 
 /**
  * `count` replica parameter vectors p_r = p₀ + L z_r, r = 0..count−1.
@@ -27,7 +28,7 @@ export function replicaParameters(central: ArrayLike<number>, covariance: Covari
   const lower = Array.from({ length: n }, (_, i) => Float64Array.from({ length: i + 1 }, (_, j) => l.get(i, j)))
   const out: Float64Array[] = []
   for (let r = 0; r < count; r++) {
-    const z = standardNormals(seed, r, n)
+    const z = standardNormals(seed, { purpose: 'fit-replicas', index: r }, n)
     const p = new Float64Array(n)
     for (let i = 0; i < n; i++) {
       let s = central[i]!

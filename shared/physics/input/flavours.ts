@@ -1,6 +1,7 @@
 /**
  * The flavour slots the engine's inputs and evolution use: PDG codes −6…−1, 1…6 and 21 (13 slots,
- * no photon), in that order. Grids built by the evolution carry exactly these flavours.
+ * no photon), in that order. Grids built by the evolution carry exactly these flavours. Names of
+ * the partons: partons.ts.
  */
 import type { Pdg } from '../types'
 
@@ -12,11 +13,6 @@ export const N_SLOTS = 13
 
 /** Slot of the gluon (PDG 21). */
 export const GLUON_SLOT = 12
-
-const NAMES: Record<number, string> = {
-  1: 'd', 2: 'u', 3: 's', 4: 'c', 5: 'b', 6: 't', 21: 'g',
-  [-1]: 'd̄', [-2]: 'ū', [-3]: 's̄', [-4]: 'c̄', [-5]: 'b̄', [-6]: 't̄'
-}
 
 /**
  * Slot index 0..12 of a PDG code in `EVOLVED_FLAVOURS`.
@@ -33,9 +29,4 @@ export function slotOf(pdg: Pdg): number {
 /** Slot of quark flavour q (1..6) and of its antiquark. @example quarkSlots(2) // { quark: 7, anti: 4 } */
 export function quarkSlots(q: number): { quark: number, anti: number } {
   return { quark: q + 5, anti: 6 - q }
-}
-
-/** Short physicist's name of a parton, e.g. 'ū' for −2. @example partonName(21) // 'g' */
-export function partonName(pdg: Pdg): string {
-  return NAMES[pdg] ?? `PDG ${pdg}`
 }

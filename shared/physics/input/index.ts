@@ -25,7 +25,7 @@ export { multiplyTerms, termMoment, termMomentComplex, termXf, type NumericTerm 
 export { evaluateXf, flavourMoments, flavourMomentsComplex, minimumXf, sumRuleIntegrals } from './evaluate'
 
 // Flavour slots
-export { EVOLVED_FLAVOURS, GLUON_SLOT, N_SLOTS, partonName, quarkSlots, slotOf } from './flavours'
+export { EVOLVED_FLAVOURS, GLUON_SLOT, N_SLOTS, quarkSlots, slotOf } from './flavours'
 
 // Special functions and complex arithmetic
 export {

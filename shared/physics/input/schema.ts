@@ -42,14 +42,15 @@
  *   from a seed.
  *
  * ## Nuclear modification (`"format": "sheaf.nuclear-modification"`, `"formatVersion": 1`)
- * Bound-proton densities at μ₀² are R(x)·(proton piece) for each piece of a baseline
- * parametrised input, then evolved like any input. The document names its baseline
- * (`"baseline": { "name", "version"?, "file"? }`; the caller loads that file and the engine checks
- * the name), a nucleus target, its own parameters and covariance (the baseline is held at its
- * central values: nuclear and baseline uncertainties stay separate and are combined in quadrature,
- * DOMAIN.md §4), and `"modifications"`: functions R built from the same terms, each listing the
- * baseline pieces it multiplies (`"appliesTo"`); every baseline piece must be covered exactly
- * once. The baseline's sum rules are imposed again on the bound proton.
+ * Bound-proton densities at μ₀² are R(x)·(proton piece) for each piece of a baseline parametrised
+ * input, then evolved like any input. The document names its baseline (`"baseline": { "name",
+ * "version"?, "file"? }`; the caller loads that file and the engine checks the name), a nucleus
+ * target, its own parameters and covariance (the baseline is held at its central values: nuclear
+ * and baseline uncertainties stay separate and are combined in quadrature, see
+ * shared/physics/README.md, "Nuclear targets and isospin"), and `"modifications"`: functions R
+ * built from the same terms, each listing the baseline pieces it multiplies (`"appliesTo"`); every
+ * baseline piece must be covered exactly once. The baseline's sum rules are imposed again on the
+ * bound proton.
  */
 import { z } from 'zod'
 

@@ -21,7 +21,8 @@ export function quarkCharge(pdg: Pdg): number {
 }
 
 /**
- * Vector and axial couplings of a fermion to the Z at LO in the normalisation of DOMAIN.md §3
+ * Vector and axial couplings of a fermion to the Z at LO in the normalisation of
+ * shared/physics/README.md, "W and Z"
  * (Ellis–Stirling–Webber, "QCD and Collider Physics", ch. 9): g_V = T₃ − 2 e sin²θ_W, g_A = T₃,
  * T₃ = ±½. Arguments: weak isospin t3 (±½), charge e (positron units), sin²θ_W (default the
  * effective leptonic angle of constants.ts). Dimensionless.

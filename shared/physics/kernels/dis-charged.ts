@@ -11,13 +11,14 @@ import { gev2ToUnit } from './units'
 
 /**
  * Neutrino and antineutrino charged-current DIS at LO (W exchange), massless quarks, with CKM
- * mixing (PDG 2024 review "Structure functions"; DOMAIN.md §3). For a W⁺ (neutrino beam) the
- * target's down-type quarks d_j turn into up-type quarks u_i with weight |V_ij|², and its
- * up-type antiquarks ū_i into d̄_j; for a W⁻ (antineutrino) the charge conjugates:
+ * mixing (PDG 2024 review "Structure functions"; see shared/physics/README.md, "DIS charged
+ * current"). For a W⁺ (neutrino beam) the target's down-type quarks d_j turn into up-type quarks
+ * u_i with weight |V_ij|², and its up-type antiquarks ū_i into d̄_j; for a W⁻ (antineutrino) the
+ * charge conjugates:
  *   F₂^{W⁺} = 2 Σ_j c_j x d_j + 2 Σ_i r_i x ū_i,   xF₃^{W⁺} = 2 Σ_j c_j x d_j − 2 Σ_i r_i x ū_i,
  *   F₂^{W⁻} = 2 Σ_i r_i x u_i + 2 Σ_j c_j x d̄_j,   xF₃^{W⁻} = 2 Σ_i r_i x u_i − 2 Σ_j c_j x d̄_j,
  * with c_j = Σ_{i ∈ u, c} |V_ij|² (no top production) and r_i = Σ_{j ∈ d, s, b} |V_ij|².
- * With `ckm: 'diagonal'` this is DOMAIN.md's F₂^{νp} = 2x(d + s + ū + c̄) (plus b, b̄ terms).
+ * With `ckm: 'diagonal'` this is the textbook F₂^{νp} = 2x(d + s + ū + c̄) (plus b, b̄ terms).
  * 2xF₁ = F₂ at LO. The cross-section (fixed target, lab beam energy E, nucleon mass M):
  *   d²σ/dx dy = (G_F² M E/π) (M_W²/(M_W² + Q²))² [x y² F₁ + (1 − y − xyM/(2E)) F₂ ± y(1 − y/2) xF₃],
  * + for ν, − for ν̄, Q² = 2 M E x y. The scale is μ_F² = Q².

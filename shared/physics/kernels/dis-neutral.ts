@@ -11,7 +11,7 @@ import { gev2ToUnit } from './units'
 
 /**
  * Deep-inelastic charged-lepton scattering, neutral current, photon exchange only, at LO
- * (PDG 2024 review "Structure functions", and DOMAIN.md §3):
+ * (PDG 2024 review "Structure functions"; see shared/physics/README.md, "DIS neutral current"):
  *   F₂ = x Σ_q e_q² (q + q̄),  F_L = 0,  2xF₁ = F₂ (Callan–Gross),
  *   σ_r = F₂ − (y²/Y₊) F_L,   d²σ/dx dQ² = (2πα²/(x Q⁴)) [Y₊ F₂ − y² F_L],  Y₊ = 1 + (1 − y)².
  * Z exchange and the running of α are not included (α = α(0), constants.ts). Grids hold x·f, so

@@ -9,7 +9,7 @@ import { gev2ToUnit } from './units'
 
 /**
  * Drell–Yan lepton-pair production through a virtual photon at LO (Ellis–Stirling–Webber,
- * "QCD and Collider Physics", ch. 9; DOMAIN.md §3):
+ * "QCD and Collider Physics", ch. 9; see shared/physics/README.md, "Drell–Yan"):
  *   d²σ/dM² dy = (4πα²/(9 M⁴)) Σ_q e_q² [x₁q(x₁) x₂q̄(x₂) + x₁q̄(x₁) x₂q(x₂)],
  *   d²σ/dM dy = 2M · d²σ/dM² dy = (8πα²/(9 M³)) Σ_q e_q² [...],
  * x₁,₂ = (M/√s) e^{±y}, one lepton flavour, α = α(0), μ_F² = M². No Z exchange.

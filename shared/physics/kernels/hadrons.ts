@@ -4,10 +4,11 @@ import type { FlavourWeights, PairWeight } from './terms'
 import { addWeight, mergePairs } from './terms'
 
 /**
- * Which hadron a density describes, in terms of the proton (or bound-proton) densities that a
- * set carries. Nuclear conventions follow DOMAIN.md §4: a bound neutron follows from the bound
- * proton by isospin (u ↔ d, ū ↔ d̄), and the per-nucleon density of a nucleus (Z, A) is
- * (Z/A) f^{p/A} + ((A − Z)/A) f^{n/A}. The antiproton is the charge conjugate (q ↔ q̄).
+ * Which hadron a density describes, in terms of the proton (or bound-proton) densities that a set
+ * carries. Nuclear conventions (see shared/physics/README.md, "Nuclear targets and isospin"): a
+ * bound neutron follows from the bound proton by isospin (u ↔ d, ū ↔ d̄), and the per-nucleon
+ * density of a nucleus (Z, A) is (Z/A) f^{p/A} + ((A − Z)/A) f^{n/A}. The antiproton is the charge
+ * conjugate (q ↔ q̄).
  */
 export type Hadron =
   | { type: 'proton' }

@@ -7,8 +7,8 @@ import type { CrossSectionUnit } from './units'
 import { gev2ToUnit } from './units'
 
 /**
- * Higgs production by gluon fusion at LO in the heavy-top limit (DOMAIN.md §3; Ellis–Stirling–
- * Webber, "QCD and Collider Physics", ch. 9 / the effective ggH coupling):
+ * Higgs production by gluon fusion at LO in the heavy-top limit (the effective ggH coupling;
+ * see shared/physics/README.md, "Higgs"):
  *   σ̂(gg → H) = σ₀ M_H² δ(ŝ − M_H²),  σ₀ = G_F α_s² / (288 √2 π),
  *   dσ/dy = σ₀ x₁g(x₁) x₂g(x₂),  x₁,₂ = (M_H/√s) e^{±y}.
  * α_s is taken at the renormalisation scale μ_R = M_H from the caller's function (one-loop α_s

@@ -27,8 +27,9 @@ export function rapidityReach(mGeV: number, sqrtSGeV: number, xMin: number, xMax
 }
 
 /**
- * DIS inelasticity y = Q²/(x s) for massless kinematics (DOMAIN.md §1: Q² = x y s).
- * Units: x dimensionless, Q² and s in GeV². Result dimensionless; the caller checks y ≤ 1.
+ * DIS inelasticity y = Q²/(x s) for massless kinematics (Q² = x y s; see shared/physics/README.md,
+ * "Kinematics"). Units: x dimensionless, Q² and s in GeV². Result dimensionless; the caller checks
+ * y ≤ 1.
  * @example inelasticity(0.01, 100, 300 ** 2) // 0.111
  */
 export function inelasticity(x: number, q2GeV2: number, sGeV2: number): number {

@@ -4,7 +4,7 @@ import { collisionTerm } from './collider'
 import type { BilinearTerm, PairWeight } from './terms'
 
 /**
- * Parton luminosities (DOMAIN.md §3):
+ * Parton luminosities (see shared/physics/README.md, "Parton luminosities"):
  *   dL_ij/dτ = (1/(1 + δ_ij)) ∫_τ¹ dx/x [f_i(x) f_j(τ/x) + f_j(x) f_i(τ/x)],  τ = M²/s.
  * With x₁,₂ = √τ e^{±y} (so dx/x = dy) and momentum densities, the integrand is
  * (1/τ) [x₁f_i x₂f_j + x₁f_j x₂f_i] integrated over |y| ≤ ½ ln(1/τ). This module gives the

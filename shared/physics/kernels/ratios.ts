@@ -1,8 +1,9 @@
 /**
- * Ratios and asymmetries of two observables computed member by member (DOMAIN.md §3: never as
- * a ratio of bands). Inputs are members × bins matrices, row-major (Float64Array), as returned
- * by evaluatePlan; a matrix with a single row is broadcast against the other's members (e.g. a
- * fixed baseline central member against a nuclear set's members).
+ * Ratios and asymmetries of two observables computed member by member, never as a ratio of bands
+ * (see shared/physics/README.md, "Ratios and asymmetries"). Inputs are members × bins matrices,
+ * row-major (Float64Array), as returned by evaluatePlan; a matrix with a single row is broadcast
+ * against the other's members (e.g. a fixed baseline central member against a nuclear set's
+ * members).
  */
 
 export type CombineOp = 'ratio' | 'asymmetry'

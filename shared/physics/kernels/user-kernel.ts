@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { partonCodeSchema } from '../partons'
 import type { Pdg } from '../types'
 import type { CompiledExpression } from './expression'
 import { compileExpression } from './expression'
@@ -18,12 +19,8 @@ import { addWeight, mergePairs } from './terms'
  * The unit is whatever E carries (the constant hbarc2 converts GeV⁻² to pb); `unitLabel` names it.
  */
 
-const pdgSchema = z.number().int().refine(p => (p !== 0 && Math.abs(p) <= 6) || p === 21 || p === 22, {
-  message: 'must be a PDG parton code: ±1 … ±6, 21 (gluon) or 22 (photon)'
-})
-
 /** One row of the weights table: flavour a (and b for the hadronic mode) with weight w. */
-export const userWeightRowSchema = z.strictObject({ a: pdgSchema, b: pdgSchema.optional(), w: z.number().refine(Number.isFinite, 'must be finite') })
+export const userWeightRowSchema = z.strictObject({ a: partonCodeSchema, b: partonCodeSchema.optional(), w: z.number().refine(Number.isFinite, 'must be finite') })
 
 /** Options of the user-defined kernel (plain JSON). */
 export const userKernelOptionsSchema = z.strictObject({

@@ -9,8 +9,8 @@ import type { CrossSectionUnit } from './units'
 import { gev2ToUnit } from './units'
 
 /**
- * On-shell W⁺, W⁻ and Z production at LO in the narrow-width approximation
- * (Ellis–Stirling–Webber, "QCD and Collider Physics", ch. 9; DOMAIN.md §3):
+ * On-shell W⁺, W⁻ and Z production at LO in the narrow-width approximation (Ellis–Stirling–Webber,
+ * "QCD and Collider Physics", ch. 9; see shared/physics/README.md, "W and Z"):
  *   σ̂(q q̄′ → W) = (π/3)√2 G_F M_W² |V_qq′|² δ(ŝ − M_W²),
  *   σ̂(q q̄ → Z) = (π/3)√2 G_F M_Z² (g_V² + g_A²) δ(ŝ − M_Z²),
  * hence dσ/dy = (√2 π G_F/3) Σ coupling · [x₁q(x₁) x₂q̄′(x₂) + (1 ↔ 2)] at x₁,₂ = (M/√s) e^{±y},

@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { partonCodeSchema } from '../partons'
 import type { SetHeader } from '../types'
 import { SET_BODY_ORDER, SET_FORMAT_VERSION } from './format'
 
@@ -39,9 +40,6 @@ export const setHeaderSchema = z.strictObject({
   replicaCentral: z.enum(['mean', 'fit']).optional()
 })
 
-const pdg = z.number().int().refine(p => (p !== 0 && Math.abs(p) <= 6) || p === 21 || p === 22, {
-  message: 'must be a PDG parton code: ±1 … ±6, 21 (gluon) or 22 (photon)'
-})
 
 /** zod schema of the whole JSON header of a set file. */
 export const setFileHeaderSchema = z.strictObject({
@@ -50,7 +48,7 @@ export const setFileHeaderSchema = z.strictObject({
   grid: z.strictObject({
     x: z.array(z.number()).min(2, 'needs at least 2 x nodes'),
     q2GeV2: z.array(z.number()).min(2, 'needs at least 2 Q² nodes'),
-    flavours: z.array(pdg).min(1, 'needs at least one flavour')
+    flavours: z.array(partonCodeSchema).min(1, 'needs at least one flavour')
   }),
   body: z.strictObject({
     encoding: z.enum(['float64-le', 'float32-le']),

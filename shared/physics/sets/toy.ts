@@ -1,5 +1,5 @@
 import jStat from 'jstat'
-import { createNormalGenerator } from '../uncertainty/prng'
+import { normalStream } from '../random'
 import type { ErrorSet, FlavourScheme, Pdg, SetHeader, SetKind } from '../types'
 
 /**
@@ -119,7 +119,7 @@ export interface ToySetOptions {
   x: Float64Array
   q2: Float64Array
   scheme: FlavourScheme
-  /** Seed of the replica generator (uncertainty/prng.ts: xoshiro128** + Box–Muller), default 1. */
+  /** Seed of the replicas' normal deviates (random.ts, stream { purpose: 'toy-sets', index: 0 }), default 1. */
   seed?: number
   name?: string
   /** Size of each eigenvector's relative variation, default 0.03. */
@@ -164,7 +164,7 @@ export function toyErrorSet(options: ToySetOptions): ErrorSet {
   if (kind === 'replicas') {
     const draws = 4
     const deltas = Array.from({ length: draws }, (_, k) => pattern(k + 1, new Float64Array(central.length)))
-    const gen = createNormalGenerator(options.seed ?? 1)
+    const gen = normalStream(options.seed ?? 1, { purpose: 'toy-sets', index: 0 })
     const z = () => gen.next()
     const sum = new Float64Array(central.length)
     for (let r = 0; r < n; r++) {

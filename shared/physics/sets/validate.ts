@@ -1,4 +1,5 @@
 import { HEAVY_QUARKS, THRESHOLD_TOLERANCE } from '../alphas'
+import { PARTON_CODES_TEXT, isPartonCode } from '../partons'
 import type { FlavourScheme, Pdg, SetHeader } from '../types'
 import { SetFormatError } from './errors'
 
@@ -67,15 +68,15 @@ export function checkFlavours(flavours: readonly Pdg[], pathPrefix = 'grid.flavo
   if (flavours.length < 1) throw new SetFormatError('the grid needs at least one flavour', { path: pathPrefix })
   const seen = new Set<Pdg>()
   flavours.forEach((f, i) => {
-    const valid = Number.isInteger(f) && ((f !== 0 && Math.abs(f) <= 6) || f === 21 || f === 22)
-    if (!valid) throw new SetFormatError(`flavour ${i} is ${f}; flavours are PDG parton codes ±1 … ±6, 21 (gluon) or 22 (photon)`, { path: `${pathPrefix}[${i}]` })
+    if (!isPartonCode(f)) throw new SetFormatError(`flavour ${i} is ${f}; flavours are PDG parton codes ${PARTON_CODES_TEXT}`, { path: `${pathPrefix}[${i}]` })
     if (seen.has(f)) throw new SetFormatError(`flavour ${f} appears twice in the flavour list (slot ${i})`, { flavour: f, path: `${pathPrefix}[${i}]` })
     seen.add(f)
   })
 }
 
 /**
- * Checks the member count against the kind (DOMAIN.md §5) and the α_s members:
+ * Checks the member count against the kind (see shared/physics/README.md, "Set kinds") and the α_s
+ * members:
  *  - at least one member (member 0, the central one);
  *  - α_s members, when declared, are the last two members [memberCount − 2, memberCount − 1],
  *    and alphasMz (when given) has one entry per member;

@@ -2,10 +2,11 @@ import type { StudySpec } from './spec'
 import { parseStudySpec } from './spec'
 
 /**
- * The study of the evaluation benchmark (issue 3, item 8): `masses` mass points log-spaced in
- * [20, 1000] GeV × `rapidityBins` rapidity bins covering |y| ≤ 2.5, Drell–Yan d²σ/dM dy at
- * √s = 13 TeV integrated over each rapidity bin with `order` Gauss–Legendre points (the
- * defaults give 1000 bins × 8 points). Bin edges are exactly mirror-symmetric in y.
+ * The study of the evaluation benchmark (`npm run bench`; see shared/physics/README.md, "Study
+ * evaluation"): `masses` mass points log-spaced in [20, 1000] GeV × `rapidityBins` rapidity bins
+ * covering |y| ≤ 2.5, Drell–Yan d²σ/dM dy at √s = 13 TeV integrated over each rapidity bin with
+ * `order` Gauss–Legendre points (the defaults give 1000 bins × 8 points). Bin edges are exactly
+ * mirror-symmetric in y.
  * @example benchmarkSpec().bins.length // 1000
  */
 export function benchmarkSpec(masses = 40, rapidityBins = 25, order = 8): StudySpec {

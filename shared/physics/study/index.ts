@@ -1,7 +1,7 @@
 /**
  * Studies: the JSON specification shared by the app, the worker and the CLI, its validation and
- * reach check, the precomputed evaluation plan (DOMAIN.md §6), direct evaluation for checks,
- * factorisation-scale variation, and the evaluation benchmark.
+ * reach check, the precomputed evaluation plan (see shared/physics/README.md, "Study evaluation"),
+ * direct evaluation for checks, factorisation-scale variation, and the evaluation benchmark.
  */
 
 // Specification
@@ -20,5 +20,5 @@ export { evaluateDirect } from './direct'
 export type { ScaleVariation } from './scale'
 export { scaleVariation } from './scale'
 
-// Benchmark study (timed by shared/cli/bench.ts)
+// Benchmark study (timed by scripts/cli/bench.ts)
 export { benchmarkSpec } from './benchmark'

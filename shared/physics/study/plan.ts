@@ -12,9 +12,9 @@ import type { StudySpec } from './spec'
 import { resultUnit } from './spec'
 
 /**
- * The precomputed evaluation plan of a study (DOMAIN.md §6). Built once per study and grid:
- * every quadrature point's interpolation weights are folded with the kernel coefficients and
- * the quadrature weights, so that evaluating a member is
+ * The precomputed evaluation plan of a study (see shared/physics/README.md, "Study evaluation").
+ * Built once per study and grid: every quadrature point's interpolation weights are folded with the
+ * kernel coefficients and the quadrature weights, so that evaluating a member is
  *  - for DIS-like kernels, a sparse dot product of the member's values with one CSR row per bin;
  *  - for hadron–hadron kernels, a sparse bilinear form. A point's value is
  *    Σ_(a,b) w_ab x₁f_a x₂f_b with x·f = Σ_{i,j} α_i β_j v(x row i, Q² node j); both partons share

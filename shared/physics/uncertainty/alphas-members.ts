@@ -4,9 +4,10 @@
 import { assertMemberValues, type MemberValues } from './matrix'
 
 /**
- * Signed half-difference ½(X(α_s⁺) − X(α_s⁻)) per bin between the members computed with the
- * upper and lower α_s(M_Z) value. Its magnitude is the α_s uncertainty ΔX_αs (DOMAIN §5); the sign
- * gives the direction, which the bin-to-bin covariance needs.
+ * Signed half-difference ½(X(α_s⁺) − X(α_s⁻)) per bin between the members computed with the upper
+ * and lower α_s(M_Z) value. Its magnitude is the α_s uncertainty ΔX_αs (see
+ * shared/physics/README.md, "α_s members"); the sign gives the direction, which the bin-to-bin
+ * covariance needs.
  *
  * Unit: that of the observable. Domain: `members` = [down, up], two distinct member indices in
  * 1..members−1 (the convention of SetHeader.alphasMembers).
@@ -29,7 +30,8 @@ export function alphasShift(matrix: MemberValues, members: readonly [number, num
 }
 
 /**
- * α_s uncertainty ΔX_αs = ½|X(α_s⁺) − X(α_s⁻)| per bin (DOMAIN §5), to be added in quadrature to
+ * α_s uncertainty ΔX_αs = ½|X(α_s⁺) − X(α_s⁻)| per bin (PDF4LHC recommendations,
+ * arXiv:1510.03865; see shared/physics/README.md, "α_s members"), to be added in quadrature to
  * the PDF uncertainty (addInQuadrature). It is at the CL of the α_s(M_Z) variation the set used.
  *
  * Unit: that of the observable. Domain and errors as alphasShift.

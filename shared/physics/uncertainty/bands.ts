@@ -3,7 +3,7 @@
  * members aside, rescales to the requested CL and adds the α_s error in quadrature.
  */
 import type { SetKind } from '../types'
-import { scaleBands, type Bands } from './band'
+import { scaleBands, type Band } from './band'
 import { alphasVariationError } from './alphas-members'
 import { clScaleFactor } from './confidence'
 import { hessianAsymmetric, hessianOneSided, hessianSymmetric } from './hessian'
@@ -68,24 +68,24 @@ export interface BandOptions extends SpreadOptions {
 }
 
 /** computeBands' result: the total band plus its parts. */
-export interface BandResult extends Bands {
+export interface BandResult extends Band {
   kind: SetKind
   prescription: Prescription
   /** CL of the band, percent (= options.clTo). */
   clPercent: number
   /** PDF part only, at clPercent (equal to the total when there are no α_s members). */
-  pdf: Bands
+  pdf: Band
   /** α_s part ½|X(α_s⁺) − X(α_s⁻)| at clPercent, or null without α_s members. */
   alphas: Float64Array | null
 }
 
 /**
- * Per-bin uncertainty band of one set: the `prescription` applied to the members other than the
- * α_s members, rescaled from `clFrom` to `clTo` by the Gaussian factor z(clTo)/z(clFrom)
+ * Per-bin uncertainty band of one set: the `prescription` applied to the members other than the α_s
+ * members, rescaled from `clFrom` to `clTo` by the Gaussian factor z(clTo)/z(clFrom)
  * (clScaleFactor), then ⊕ the α_s error ½|X(α_s⁺) − X(α_s⁻)| rescaled from `alphasCl` to `clTo`
- * (DOMAIN §5). For 'replica-68-interval' the rescaling stretches the 16–84% interval by the
- * Gaussian factor; for the exact percentile interval at another coverage call
- * replicaMedianInterval(matrix, coverage) directly.
+ * (see shared/physics/README.md, "Confidence levels" and "α_s members"). For 'replica-68-interval'
+ * the rescaling stretches the 16–84% interval by the Gaussian factor; for the exact percentile
+ * interval at another coverage call replicaMedianInterval(matrix, coverage) directly.
  *
  * Unit: that of the observable. Domain: a member-value matrix whose member count fits `kind`
  * (central + 2N for pairs, central + N for one-sided, central + N ≥ 2 replicas; α_s members come
@@ -110,7 +110,7 @@ export function computeBands(matrix: MemberValues, options: BandOptions): BandRe
   return { ...addInQuadrature(pdf, alphas), kind, prescription, clPercent: clTo, pdf, alphas }
 }
 
-const PRESCRIPTION_FUNCTIONS: Record<Prescription, (matrix: MemberValues) => Bands> = {
+const PRESCRIPTION_FUNCTIONS: Record<Prescription, (matrix: MemberValues) => Band> = {
   'hessian-symmetric': hessianSymmetric,
   'hessian-asymmetric': hessianAsymmetric,
   'one-sided': hessianOneSided,

@@ -24,8 +24,9 @@ export interface EigenvectorContributions {
 }
 
 /**
- * Contribution of each eigenvector k to bin `bin` (DOMAIN §5, standard diagnostic): the signed
- * shift d_k and its squared fraction d_k²/Σ_j d_j² of the symmetric uncertainty squared.
+ * Contribution of each eigenvector k to bin `bin` (standard diagnostic; see
+ * shared/physics/README.md, "Eigenvector contributions"): the signed shift d_k and its squared
+ * fraction d_k²/Σ_j d_j² of the symmetric uncertainty squared.
  *
  * Unit: signed and total in the observable's unit; fraction dimensionless.
  * Domain: a Hessian set (kind 'hessian-pairs' or 'hessian-one-sided'; replicas have no

@@ -40,7 +40,8 @@ export function deviationRows(matrix: MemberValues, kind: SetKind): MemberValues
 }
 
 /**
- * Bin-to-bin covariance matrix of a set's predictions (DOMAIN §5):
+ * Bin-to-bin covariance matrix of a set's predictions (see shared/physics/README.md,
+ * "Covariance and correlation"):
  * Hessian pairs C_ij = Σ_k ¼(X_ik⁺ − X_ik⁻)(X_jk⁺ − X_jk⁻); one-sided C_ij = Σ_k (X_ik − X_i0)(X_jk − X_j0);
  * replicas the sample covariance (1/(N−1)) Σ_r (X_ir − X̄_i)(X_jr − X̄_j). With α_s members,
  * + ¼(X_i(α_s⁺) − X_i(α_s⁻))(X_j(α_s⁺) − X_j(α_s⁻)). Entries are rescaled by
@@ -107,8 +108,9 @@ export function gram(rows: MemberValues): SquareMatrix {
 
 /**
  * Correlation matrix ρ_ij = C_ij / √(C_ii C_jj) of a covariance matrix. For Hessian sets this is
- * cos φ of Pumplin et al. (DOMAIN §5), for replicas the Pearson coefficient. Entries of a bin
- * with zero variance (no PDF dependence) are NaN.
+ * cos φ of Pumplin et al. (see shared/physics/README.md, "Covariance and correlation"), for
+ * replicas the Pearson coefficient. Entries of a bin with zero variance (no PDF dependence) are
+ * NaN.
  *
  * Unit: dimensionless, in [−1, 1] up to rounding (clamped). Domain: a covariance matrix.
  * @throws RangeError for a negative diagonal entry.
@@ -148,7 +150,7 @@ export function binCorrelation(matrix: MemberValues, options: CovarianceOptions)
 /**
  * Correlation of two observables X and Y given their values for every member of one set:
  * Hessian pairs cos φ = Σ_k (X_k⁺ − X_k⁻)(Y_k⁺ − Y_k⁻) / (4 ΔX ΔY) (J. Pumplin et al.,
- * hep-ph/0101032; DOMAIN §5), one-sided Σ_k (X_k − X₀)(Y_k − Y₀)/(ΔX ΔY), replicas the Pearson
+ * hep-ph/0101032), one-sided Σ_k (X_k − X₀)(Y_k − Y₀)/(ΔX ΔY), replicas the Pearson
  * coefficient of members 1..N. cos φ ≈ 1: strongly correlated; ≈ 0: independent; ≈ −1:
  * anti-correlated.
  *

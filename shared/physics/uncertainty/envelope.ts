@@ -1,7 +1,7 @@
 /**
  * Envelope of several sets' bands on the same bins: the simple way to combine families.
  */
-import { makeBands, type Bands } from './band'
+import { makeBands, type Band } from './band'
 
 /**
  * Envelope of the individual bands (common practice): per bin, lower = min_s(central_s − minus_s),
@@ -12,7 +12,7 @@ import { makeBands, type Bands } from './band'
  * @throws RangeError for no bands or a bin-count mismatch.
  * @example bandEnvelope([makeBands([10], [1], [1]), makeBands([11], [2], [0.5])]) // central [11], plus [2], minus [2]
  */
-export function bandEnvelope(bands: readonly Bands[]): Bands {
+export function bandEnvelope(bands: readonly Band[]): Band {
   const first = bands[0]
   if (first === undefined) throw new RangeError('No bands to take the envelope of: give at least one.')
   const n = first.central.length

@@ -2,7 +2,7 @@
  * Hessian prescriptions: eigenvector pairs (symmetric and asymmetric) and one-sided eigenvectors.
  */
 import type { SetKind } from '../types'
-import { makeBands, type Bands } from './band'
+import { makeBands, type Band } from './band'
 import { assertMemberValues, type MemberValues } from './matrix'
 import { NeumaierSum } from './summation'
 
@@ -70,7 +70,8 @@ function rootSumSquaresPerBin(deviations: MemberValues): Float64Array {
 
 /**
  * Symmetric Hessian error from eigenvector pairs: ΔX = ½ √(Σ_k (X_k⁺ − X_k⁻)²), central X₀,
- * plus = minus = ΔX (DOMAIN §5; J. Pumplin et al., hep-ph/0101032).
+ * plus = minus = ΔX (J. Pumplin et al., hep-ph/0101032; see shared/physics/README.md,
+ * "Hessian sets").
  *
  * Unit: that of the observable; the band is at the CL of the set's members (rescale with
  * clScaleFactor). Domain: central + N pairs, members 2k−1 = X_k⁺ and 2k = X_k⁻.
@@ -78,7 +79,7 @@ function rootSumSquaresPerBin(deviations: MemberValues): Float64Array {
  * @throws RangeError for a malformed matrix or a member count that is not 1 + 2N.
  * @example hessianSymmetric(memberValuesFromRows([[10], [12], [9]])).plus // [1.5]
  */
-export function hessianSymmetric(matrix: MemberValues): Bands {
+export function hessianSymmetric(matrix: MemberValues): Band {
   const delta = rootSumSquaresPerBin(eigenvectorDeviations(matrix, 'hessian-pairs'))
   return makeBands(matrix.values.subarray(0, matrix.bins), delta, delta)
 }
@@ -92,7 +93,7 @@ export function hessianSymmetric(matrix: MemberValues): Bands {
  * @throws RangeError for a malformed matrix or a member count that is not 1 + 2N.
  * @example hessianAsymmetric(memberValuesFromRows([[10], [12], [9]])) // plus [2], minus [1]
  */
-export function hessianAsymmetric(matrix: MemberValues): Bands {
+export function hessianAsymmetric(matrix: MemberValues): Band {
   const n = eigenvectorCount(matrix, 'hessian-pairs')
   const { bins, values } = matrix
   const plus = new Float64Array(bins)
@@ -117,14 +118,14 @@ export function hessianAsymmetric(matrix: MemberValues): Bands {
 
 /**
  * Symmetric error from one-sided eigenvectors: ΔX = √(Σ_k (X_k − X₀)²), central X₀,
- * plus = minus = ΔX (DOMAIN §5).
+ * plus = minus = ΔX (common practice; see shared/physics/README.md, "Hessian sets").
  *
  * Unit: that of the observable, at the CL of the set. Domain: central + N ≥ 1 members.
  * Method: compensated sum of squares.
  * @throws RangeError for a malformed matrix.
  * @example hessianOneSided(memberValuesFromRows([[10], [13], [6]])).plus // [5]
  */
-export function hessianOneSided(matrix: MemberValues): Bands {
+export function hessianOneSided(matrix: MemberValues): Band {
   const delta = rootSumSquaresPerBin(eigenvectorDeviations(matrix, 'hessian-one-sided'))
   return makeBands(matrix.values.subarray(0, matrix.bins), delta, delta)
 }

@@ -1,14 +1,14 @@
 /**
  * Adding independent uncertainties in quadrature (nuclear ⊕ baseline, PDF ⊕ α_s).
  */
-import { makeBands, type Bands } from './band'
+import { makeBands, type Band } from './band'
 import { NeumaierSum } from './summation'
 
 /**
  * Combines the bands of independent uncertainty sources on the same observable:
  * plus = √(Σ_s plus_s²), minus = √(Σ_s minus_s²), central from the first band. This is how a
  * nuclear set's own uncertainty and that of its free-proton baseline are combined when the set
- * does not supply them jointly (DOMAIN §4).
+ * does not supply them jointly (see shared/physics/README.md, "Nuclear targets and isospin").
  *
  * Unit: that of the observable. Domain: at least one band, all with the same number of bins and
  * central values agreeing within `relativeTolerance` (they describe the same prediction);
@@ -16,7 +16,7 @@ import { NeumaierSum } from './summation'
  * @throws RangeError for no bands, a bin-count mismatch, or central values that disagree.
  * @example addBandsInQuadrature([makeBands([10], [3], [3]), makeBands([10], [4], [0])]).plus // [5]
  */
-export function addBandsInQuadrature(bands: readonly Bands[], relativeTolerance = 1e-9): Bands {
+export function addBandsInQuadrature(bands: readonly Band[], relativeTolerance = 1e-9): Band {
   const first = bands[0]
   if (first === undefined) throw new RangeError('Nothing to combine: give at least one band.')
   const n = first.central.length
@@ -32,7 +32,7 @@ export function addBandsInQuadrature(bands: readonly Bands[], relativeTolerance 
       }
     }
   })
-  const combine = (pick: (band: Bands) => Float64Array) => Float64Array.from({ length: n }, (_, b) => {
+  const combine = (pick: (band: Band) => Float64Array) => Float64Array.from({ length: n }, (_, b) => {
     const s = new NeumaierSum()
     for (const band of bands) s.add(pick(band)[b]! ** 2)
     return Math.sqrt(s.value)
@@ -48,7 +48,7 @@ export function addBandsInQuadrature(bands: readonly Bands[], relativeTolerance 
  * @throws RangeError on a length mismatch or a negative or non-finite value.
  * @example addInQuadrature(makeBands([10], [3], [0]), [4]) // plus [5], minus [4]
  */
-export function addInQuadrature(bands: Bands, extra: ArrayLike<number>): Bands {
+export function addInQuadrature(bands: Band, extra: ArrayLike<number>): Band {
   const n = bands.central.length
   if (extra.length !== n) throw new RangeError(`The extra uncertainty has ${extra.length} bins but the band has ${n}.`)
   for (let b = 0; b < n; b++) {

@@ -1,12 +1,13 @@
 /**
- * Uncertainty prescriptions of the Sheaf engine (DOMAIN §5): bands, covariances, correlations,
- * combinations of sets, replica ↔ Hessian conversions and χ² against data. All functions take
- * member-value matrices (members × bins) and return new typed arrays.
+ * Uncertainty prescriptions of the Sheaf engine (see shared/physics/README.md, "Uncertainty
+ * prescriptions"): bands, covariances, correlations, combinations of sets, replica ↔ Hessian
+ * conversions and χ² against data. All functions take member-value matrices (members × bins) and
+ * return new typed arrays.
  */
 
 // Inputs and results
 export { type MemberValues, type SpreadOptions, type SquareMatrix, memberValuesFromRows, assertMemberValues, withoutMembers, binColumn } from './matrix'
-export { type Bands, type BandRow, makeBands, scaleBands, bandRows } from './band'
+export { type Band, type BandJson, type BandRow, type BandView, makeBands, scaleBands, bandRows, bandToJson } from './band'
 
 // One entry point for a study's band
 export {
@@ -35,7 +36,6 @@ export { type EigenvectorContributions, eigenvectorContributions } from './contr
 export { bandEnvelope } from './envelope'
 export { type PoolMember, type PooledSets, hessianToReplicas, poolSets } from './pooling'
 export { type ReductionOptions, type ReducedHessian, reduceReplicasToHessian } from './pca'
-export { splitMix64, Xoshiro128StarStar, type NormalGenerator, createNormalGenerator } from './prng'
 
 // Comparison with data
 export { type Measurement, type ChiSquareResult, experimentalCovariance, chiSquare, compareWithSet } from './chi2'

@@ -1,6 +1,6 @@
 /**
- * Replicas → a small Hessian set, by principal components of the replica deviations (the
- * reduction behind the Hessian form of combined sets, DOMAIN §5).
+ * Replicas → a small Hessian set, by principal components of the replica deviations (the reduction
+ * behind the Hessian form of combined sets; see shared/physics/README.md, "Combining sets").
  */
 import { EigenvalueDecomposition, Matrix } from 'ml-matrix'
 import { deviationRows, gram } from './covariance'

@@ -1,13 +1,14 @@
 /**
- * Monte-Carlo combination of several sets (PDF4LHC recommendations, arXiv:1510.03865): Hessian
- * sets are turned into replicas, equal numbers of replicas are pooled, the pool gives the band.
+ * Monte-Carlo combination of several sets (PDF4LHC recommendations, arXiv:1510.03865; see
+ * shared/physics/README.md, "Combining sets"): Hessian sets are turned into replicas, equal
+ * numbers of replicas are pooled, the pool gives the band.
  */
+import { normalStream, type NormalGenerator } from '../random'
 import type { SetKind } from '../types'
-import type { Bands } from './band'
+import type { Band } from './band'
 import { clScaleFactor } from './confidence'
 import { eigenvectorDeviations } from './hessian'
 import { assertMemberValues, withoutMembers, type MemberValues } from './matrix'
-import { createNormalGenerator, type NormalGenerator } from './prng'
 import { replicaCount, replicaMeanSd, replicaMedianInterval, replicaMoments } from './replicas'
 
 /**
@@ -20,9 +21,9 @@ import { replicaCount, replicaMeanSd, replicaMedianInterval, replicaMoments } fr
  * Unit: that of the observable. Result: 1 + N members, member 0 = X₀, members 1..N the replicas.
  * Domain: a Hessian member-value matrix without α_s members; N ≥ 1; clFrom in (0, 100).
  * Method: deviates drawn in the order replica 1 eigenvectors 1..K, replica 2 …, from `normals`
- * (createNormalGenerator(seed) for a reproducible stream).
+ * (normalStream(seed, key) of random.ts for a reproducible stream).
  * @throws RangeError for replicas as input, a member count that does not fit the kind, or N < 1.
- * @example hessianToReplicas(m, 'hessian-pairs', 100, createNormalGenerator(1), 90)
+ * @example hessianToReplicas(m, 'hessian-pairs', 100, normalStream(1, { purpose: 'synthetic', index: 0 }), 90)
  */
 export function hessianToReplicas(
   matrix: MemberValues,
@@ -66,9 +67,9 @@ export interface PooledSets {
   /** Replicas taken from each set. */
   replicasPerSet: number
   /** Mean ± sample standard deviation of the pool, 68% CL. */
-  sd: Bands
+  sd: Band
   /** Median and 16th–84th percentile interval of the pool. */
-  interval: Bands
+  interval: Band
 }
 
 /**
@@ -82,8 +83,9 @@ export interface PooledSets {
  * Unit: that of the observable. Domain: at least one set; every set with the same bins;
  * replica sets with at least `replicasPerSet` replicas; replicasPerSet ≥ 2; seed an integer
  * 0 ≤ seed ≤ 2⁵³ − 1. α_s members are left out of the pool.
- * Method: one normal stream (createNormalGenerator(seed)) consumed set by set in input order,
- * so the same inputs and seed give the same pool. Statistical accuracy of the band ≈ 1/√(2·M)
+ * Method: each set draws from its own normal stream, normalStream(seed, { purpose: 'pooling',
+ * index: s }) for the set at position s, so the same inputs and seed give the same pool and a
+ * set's replicas do not depend on the sets before it. Statistical accuracy of the band ≈ 1/√(2·M)
  * relative for a pool of M replicas.
  * @throws RangeError naming the offending set.
  * @example poolSets([{ matrix: a, kind: 'hessian-pairs', clFrom: 90 }, { matrix: b, kind: 'replicas' }], { replicasPerSet: 300, seed: 1 })
@@ -94,7 +96,7 @@ export function poolSets(sets: readonly PoolMember[], options: { replicasPerSet:
   if (!Number.isInteger(replicasPerSet) || replicasPerSet < 2) {
     throw new RangeError(`Pooling needs at least 2 replicas per set; got ${replicasPerSet}.`)
   }
-  const normals = createNormalGenerator(seed)
+  if (!Number.isSafeInteger(seed) || seed < 0) throw new RangeError(`The pooling seed must be a whole number from 0 to 2^53 − 1; got ${seed}.`)
   const bins = sets[0]!.matrix.bins
   const total = replicasPerSet * sets.length
   const values = new Float64Array((total + 1) * bins)
@@ -106,7 +108,7 @@ export function poolSets(sets: readonly PoolMember[], options: { replicasPerSet:
     const pdf = set.alphasMembers === undefined ? set.matrix : withoutMembers(set.matrix, set.alphasMembers)
     const part = set.kind === 'replicas'
       ? firstReplicas(pdf, replicasPerSet, set.clFrom ?? 68, s)
-      : hessianToReplicas(pdf, set.kind, replicasPerSet, normals, set.clFrom ?? 68)
+      : hessianToReplicas(pdf, set.kind, replicasPerSet, normalStream(seed, { purpose: 'pooling', index: s }), set.clFrom ?? 68)
     values.set(part.values.subarray(bins), (1 + s * replicasPerSet) * bins)
   })
   const pooled: MemberValues = { members: total + 1, bins, values }

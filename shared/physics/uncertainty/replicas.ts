@@ -2,7 +2,7 @@
  * Monte-Carlo replica prescriptions: mean ± sample standard deviation, and the median with a
  * central percentile interval.
  */
-import { makeBands, type Bands } from './band'
+import { makeBands, type Band } from './band'
 import { assertMemberValues, type MemberValues } from './matrix'
 import { quantilesOfSorted } from './quantile'
 
@@ -46,14 +46,15 @@ export function replicaMoments(matrix: MemberValues): { mean: Float64Array, vari
 
 /**
  * Replica band from the mean and sample standard deviation: central = mean of members 1..N,
- * plus = minus = √(variance) with the 1/(N−1) normalisation (DOMAIN §5; common practice).
+ * plus = minus = √(variance) with the 1/(N−1) normalisation (common practice; see
+ * shared/physics/README.md, "Replica sets").
  *
  * Unit: that of the observable. Domain: N ≥ 2 replicas. Method: replicaMoments (Welford).
  * The statistical accuracy of the sd itself is about sd/√(2(N−1)) for Gaussian replicas.
  * @throws RangeError for fewer than two replicas.
  * @example replicaMeanSd(memberValuesFromRows([[0], [1], [2], [3]])) // central [2], plus [1], minus [1]
  */
-export function replicaMeanSd(matrix: MemberValues): Bands {
+export function replicaMeanSd(matrix: MemberValues): Band {
   const { mean, variance } = replicaMoments(matrix)
   const sd = variance.map(Math.sqrt)
   return makeBands(mean, sd, sd)
@@ -63,15 +64,16 @@ export function replicaMeanSd(matrix: MemberValues): Bands {
  * Replica band from the median and the central `coveragePercent` interval: with
  * p± = (100 ± coverage)/200, central = Q(½), plus = Q(p₊) − Q(½), minus = Q(½) − Q(p₋), Q the
  * sample quantile of members 1..N by linear interpolation between order statistics
- * (sampleQuantile; Hyndman–Fan definition 7). The default 68 gives the 16th and 84th
- * percentiles (DOMAIN §5; common practice for skewed replica distributions).
+ * (sampleQuantile; Hyndman–Fan definition 7). The default 68 gives the 16th and 84th percentiles
+ * (common practice for skewed replica distributions; see shared/physics/README.md,
+ * "Replica sets").
  *
  * Unit: that of the observable. Domain: N ≥ 2 replicas, 0 < coveragePercent < 100.
  * Method: one sort per bin, O(B · N log N).
  * @throws RangeError for fewer than two replicas or a coverage outside (0, 100).
  * @example replicaMedianInterval(memberValuesFromRows([[0], [1], [2], [3], [4], [5]])) // central [3], plus [1.36], minus [1.36]
  */
-export function replicaMedianInterval(matrix: MemberValues, coveragePercent = 68): Bands {
+export function replicaMedianInterval(matrix: MemberValues, coveragePercent = 68): Band {
   if (!(coveragePercent > 0 && coveragePercent < 100)) {
     throw new RangeError(`The coverage of a replica interval must be a percentage strictly between 0 and 100; got ${coveragePercent}.`)
   }

@@ -56,15 +56,53 @@ export async function waitForEnd(client: ApiClient, workspaceId: string, resultI
   }
 }
 
-/** Signs `user` in through the sign-in form and waits for the dashboard. */
-export async function signInThroughForm(context: BrowserContext, user: TestUser): Promise<Page> {
-  const page = await context.newPage()
+/**
+ * Waits until Nuxt has hydrated the page after a full load, so that clicks and form input reach
+ * Vue's handlers rather than the server-rendered HTML.
+ */
+export async function hydrated(page: Page) {
+  await page.waitForFunction(() => {
+    const app = (document.querySelector('#__nuxt') as { __vue_app__?: { config: { globalProperties: { $nuxt?: { isHydrating?: boolean } } } } } | null)?.__vue_app__
+    const nuxt = app?.config.globalProperties.$nuxt
+    return Boolean(nuxt) && !nuxt!.isHydrating
+  })
+}
+
+/** Signs `user` in through the sign-in form and waits until the app leaves the sign-in page. */
+export async function signInThroughForm(context: BrowserContext, user: TestUser, page?: Page): Promise<Page> {
+  page ??= await context.newPage()
   await page.goto(`${testEnv().appUrl}/signin`)
+  await hydrated(page)
   await page.getByLabel('E-mail').fill(user.email)
   await page.getByLabel('Password').fill(user.password)
   await page.getByRole('button', { name: 'Sign in' }).click()
   await page.waitForURL(url => !url.pathname.startsWith('/signin'))
   return page
+}
+
+/**
+ * A fresh page of `user` at `path`: closes the context's other pages, drops every cookie (no
+ * session of an earlier test), signs in through the form and opens `path`. Each test calls it
+ * for itself, so no test depends on the page another one left.
+ */
+export async function openAs(context: BrowserContext, user: TestUser, path: string): Promise<Page> {
+  const page = await context.newPage() // first: a persistent context keeps at least one page open
+  await Promise.all(context.pages().filter(p => p !== page).map(p => p.close()))
+  await context.clearCookies()
+  await signInThroughForm(context, user, page)
+  await page.goto(`${testEnv().appUrl}${path}`)
+  await hydrated(page)
+  return page
+}
+
+/** Runs the fixture's study on all its sets through the API as the analyst and waits until every result has ended. */
+export async function runThroughApi(fx: WorkflowFixture): Promise<Array<{ id: string, setId: string, state: string }>> {
+  const run = await fx.ws.analyst.client.post(`/api/workspaces/${fx.ws.id}/studies/${fx.studyId}/run`, {})
+  if (run.status !== 202) throw new Error(`run answered ${run.status}: ${JSON.stringify(run.body)}`)
+  const results = run.body.results as Array<{ id: string, setId: string }>
+  const states = await Promise.all(results.map(r => waitForEnd(fx.ws.analyst.client, fx.ws.id, r.id)))
+  if (states.some(s => s !== 'done')) throw new Error(`the fixture's run ended ${states.join(', ')}`)
+  return results.map((r, k) => ({ ...r, state: states[k]! }))
 }
 
 /** Text of the grid's body cells in the column whose header reads `header` (rendered rows only). */

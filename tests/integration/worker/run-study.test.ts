@@ -1,8 +1,8 @@
 // The run-study job end to end on the real PostgreSQL and Redis: a BullMQ worker of this test
-// process runs runStudyJob on its own queue; the stored member values and bands are compared
+// process runs the worker's runStudyJob on its own queue; the stored member values and bands are compared
 // with the engine called directly (evaluateDirect, an evaluation path independent of the plan).
 import { randomUUID } from 'node:crypto'
-import { Queue, QueueEvents, Worker, type Job } from 'bullmq'
+import { Queue, QueueEvents, Worker } from 'bullmq'
 import IORedis from 'ioredis'
 import { count, eq } from 'drizzle-orm'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
@@ -10,9 +10,11 @@ import { testDB, tables as t } from '../../support/db'
 import { testEnv } from '../../support/env'
 import { waitForMail } from '../../support/outbox'
 import { createUser } from '../../support/users'
-import { bytesToFloat64 } from '../../../server/utils/workflow/float64'
-import { insertErrorSet } from '../../../server/utils/workflow/set-store'
-import { runStudyInline, runStudyJob } from '../../../workers/jobs/run-study'
+import { bytesToFloat64 } from '../../../server/domain/results/float64'
+import { insertErrorSet } from '../../../server/domain/sets/store'
+import { readSettings } from '../../../server/domain/settings'
+import { runStudy } from '../../../server/domain/studies/run'
+import { runStudyJob } from '../../../workers/handlers'
 import { evaluateDirect } from '../../../shared/physics/study/direct'
 import { parseStudySpec } from '../../../shared/physics/study/spec'
 import { writeSetFile } from '../../../shared/physics/sets/write'
@@ -63,7 +65,7 @@ beforeAll(async () => {
   queue = new Queue(queueName, { connection })
   events = new QueueEvents(queueName, { connection: connection.duplicate() })
   await events.waitUntilReady()
-  worker = new Worker(queueName, job => runStudyJob(db, job), { connection: connection.duplicate(), concurrency: 1 })
+  worker = new Worker(queueName, job => runStudyJob(db, readSettings(), job), { connection: connection.duplicate(), concurrency: 1 })
   user = await createUser({ tag: 'worker', signIn: false })
   const [ws] = await db.insert(t.workspaces).values({ name: 'worker tests', createdBy: user.id }).returning()
   workspaceId = ws!.id
@@ -98,7 +100,7 @@ describe('run-study job on PostgreSQL and Redis', () => {
     for (const b of bands) {
       expect(b.clPercent).toBe(90)
       const expected = computeBands({ members: 13, bins: 6, values: direct }, { kind: 'hessian-pairs', prescription: b.prescription as 'hessian-symmetric', clFrom: set.header.confidenceLevelPercent, clTo: 90 })
-      const got = b.bands as { central: number[], plus: number[], minus: number[] }
+      const got = b.bands
       for (let i = 0; i < 6; i++) {
         expect(close(got.central[i]!, expected.central[i]!, 1e-10)).toBe(true)
         expect(close(got.plus[i]!, expected.plus[i]!, 1e-8)).toBe(true)
@@ -135,13 +137,13 @@ describe('run-study job on PostgreSQL and Redis', () => {
     await runOnQueue(result.id)
     const first = bytesToFloat64((await db.select().from(t.resultValues).where(eq(t.resultValues.resultId, result.id)))[0]!.values)
     // A finished result is left alone by a retry …
-    const again = await runStudyInline(db, result.id)
+    const again = await runStudy(db, result.id)
     expect(again).toMatchObject({ skipped: true, state: 'done' })
     // … and a result whose worker died mid-run (state still running) is recomputed in place.
     await db.update(t.results).set({ state: 'running' }).where(eq(t.results.id, result.id))
-    expect(await runStudyInline(db, result.id)).toMatchObject({ state: 'done', members: 21 })
-    const [{ n: results }] = await db.select({ n: count() }).from(t.results).where(eq(t.results.studyId, result.studyId))
-    const [{ n: valueRows }] = await db.select({ n: count() }).from(t.resultValues).where(eq(t.resultValues.resultId, result.id))
+    expect(await runStudy(db, result.id)).toMatchObject({ state: 'done', members: 21 })
+    const results = (await db.select({ n: count() }).from(t.results).where(eq(t.results.studyId, result.studyId)))[0]!.n
+    const valueRows = (await db.select({ n: count() }).from(t.resultValues).where(eq(t.resultValues.resultId, result.id)))[0]!.n
     const bandRows = await db.select().from(t.resultBands).where(eq(t.resultBands.resultId, result.id))
     expect([results, valueRows, bandRows.length]).toEqual([1, 1, prescriptionsFor('replicas').length])
     const second = bytesToFloat64((await db.select().from(t.resultValues).where(eq(t.resultValues.resultId, result.id)))[0]!.values)
@@ -152,14 +154,12 @@ describe('run-study job on PostgreSQL and Redis', () => {
     const { set, setId } = await storedSet('replicas', 60)
     const { result } = await newResult(setId, set, f2Spec(3))
     const seen: Array<{ done: number, total: number }> = []
-    const job = {
-      data: { resultId: result.id }, attemptsMade: 0, opts: { attempts: 2 },
-      updateProgress: async (p: { done: number, total: number }) => {
+    const outcome = await runStudy(db, result.id, {
+      onProgress: async (p) => {
         seen.push(p)
         if (seen.length === 1) await db.update(t.results).set({ cancelRequested: true }).where(eq(t.results.id, result.id))
       }
-    } as unknown as Job
-    const outcome = await runStudyJob(db, job)
+    })
     expect(outcome).toMatchObject({ state: 'cancelled' })
     // The flag set after the first chunk is read at the end of the second chunk at the latest.
     expect(seen.length).toBeGreaterThanOrEqual(1)

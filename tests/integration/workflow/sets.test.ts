@@ -203,7 +203,7 @@ describe('building a set from a fit', () => {
     expect(build.progress.done).toBe(build.progress.total)
     const set = await ws.viewer.client.get(`${base()}/${build.setId}`)
     expect(set.body).toMatchObject({ name: 'built-minimal', origin: 'build', kind: 'hessian-pairs', memberCount: 1 + 2 * input.parameters.length })
-    // The input imposes the sum rules; LO evolution conserves them (DOMAIN.md §1: ∫x(Σ+g) = 1,
+    // The input imposes the sum rules; LO evolution conserves them (shared/physics/README.md, sum rules: ∫x(Σ+g) = 1,
     // ∫u_v = 2, ∫d_v = 1). Tolerance: the engine's small-x tail estimate (integrateX docs).
     const rules = await ws.viewer.client.get(`${base()}/${build.setId}/sum-rules?q2=100`)
     const byId = Object.fromEntries(rules.body.rules.map((r: { id: string, central: number }) => [r.id, r.central]))

@@ -6,7 +6,7 @@ import { beforeAll, describe, expect, it } from 'vitest'
 import { testDB, tables as t } from '../../support/db'
 import { waitForMail } from '../../support/outbox'
 import { createWorkspace, type TestWorkspace } from '../../support/users'
-import { bytesToFloat64 } from '../../../server/utils/workflow/float64'
+import { bytesToFloat64 } from '../../../server/domain/results/float64'
 import { RESULT_CAUTION } from '../../../shared/export/caution'
 import { f2Spec, postForm, toySetBytes, uploadSet, waitForResult } from './helpers'
 
@@ -197,7 +197,7 @@ describe('running a study', () => {
     const none = await ws.viewer.client.get(`${api()}/results/${rep!.id}/contributions?bin=1`)
     expect(none.status).toBe(422)
     expect(none.body.statusMessage).toMatch(/replica/i)
-    // Each member's shift from the central value: members 2k−1 and 2k are X_k⁺ and X_k⁻ (DOMAIN §5).
+    // Each member's shift from the central value: members 2k−1 and 2k are X_k⁺ and X_k⁻ (see shared/physics/README.md, Hessian sets).
     const X = await storedValues(h!.id)
     c.body.eigenvectors.forEach((e: { eigenvector: number, signed: number, plus: number, minus: number }, i: number) => {
       const k = i + 1
@@ -449,7 +449,7 @@ describe('comparison and measurements', () => {
 
 describe('matrices of very large studies', () => {
   it('refuses the n × n matrices above the bin cap with 413 and a message, the bands still come', async () => {
-    // 2001 bins: one over the default cap of 2000 (server/utils/workflow/results.ts MATRIX_MAX_BINS).
+    // 2001 bins: one over the default cap of 2000 (server/domain/results/results.ts MATRIX_MAX_BINS).
     const bins = Array.from({ length: 2001 }, (_, i) => ({ x: 0.001 + 0.4 * i / 2001, q2: 10 }))
     const study = await createStudy({ spec: { kernel: 'dis-nc-f2', bins }, setIds: [hessian] })
     const [h] = await runAndWait(study.id)

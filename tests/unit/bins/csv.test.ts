@@ -41,6 +41,38 @@ describe('readCsv', () => {
     expect(problems).toEqual([{ line: 5, column: 2, message: 'quote inside an unquoted field; quote the whole field and double the quote' }])
   })
 
+  it('keeps each line end as written inside a quoted field when a file mixes CRLF, LF and CR', () => {
+    const { records, problems } = readCsv('a,"x\r\ny\nz"\r\nb,c\rd,e\n')
+    expect(problems).toEqual([])
+    expect(records).toEqual([
+      { fields: ['a', 'x\r\ny\nz'], line: 1 },
+      { fields: ['b', 'c'], line: 4 },
+      { fields: ['d', 'e'], line: 5 }
+    ])
+  })
+
+  it('counts columns in characters, not bytes, and refuses text, spaces included, after a closing quote', () => {
+    expect(readCsv('é,"ü"x,3\nok,1\n')).toEqual({
+      records: [{ fields: ['ok', '1'], line: 2 }],
+      problems: [{ line: 1, column: 6, message: "unexpected 'x' after a closing quote; a quoted field must end at a ',' or a line end" }]
+    })
+    expect(readCsv('a,b\n"x" ,y\n').problems).toEqual([
+      { line: 2, column: 4, message: "unexpected ' ' after a closing quote; a quoted field must end at a ',' or a line end" }
+    ])
+  })
+
+  it('finds the opening quote of a field never closed even when doubled quotes follow it', () => {
+    expect(readCsv('h\n1,"""abc\n2,3\n').problems).toEqual([{ line: 2, column: 3, message: 'quoted field is never closed' }])
+    expect(readCsv('h\n1,"ab""\n').problems).toEqual([{ line: 2, column: 3, message: 'quoted field is never closed' }])
+  })
+
+  it('takes a comment marker only at the start of a record, and keeps a quoted empty field', () => {
+    expect(readCsv('#c\na,b#c\n""\n', { comment: '#' }).records).toEqual([
+      { fields: ['a', 'b#c'], line: 2 },
+      { fields: [''], line: 3 }
+    ])
+  })
+
   it('reads other delimiters and refuses a quote as delimiter', () => {
     expect(readCsv('a;b\n1;2', { delimiter: ';' }).records[1]!.fields).toEqual(['1', '2'])
     expect(() => readCsv('a', { delimiter: '"' })).toThrow(RangeError)
@@ -53,7 +85,7 @@ describe('readCsv', () => {
 
 describe('writeCsv', () => {
   it('quotes only fields that need it and ends every line with CRLF', () => {
-    expect(writeCsv([['a', 'b,c', 'say "hi"', ' pad', 1e-7, null, '#x']])).toBe('a,"b,c","say ""hi""",\" pad\",1e-7,,"#x"\r\n')
+    expect(writeCsv([['a', 'b,c', 'say "hi"', ' pad', 1e-7, null, '#x']])).toBe('a,"b,c","say ""hi"""," pad",1e-7,,"#x"\r\n')
   })
   it('writes comment lines first', () => {
     expect(writeCsv([['h']], { comments: ['one', 'two\nthree', ''], eol: '\n' })).toBe('# one\n# two\n# three\n#\nh\n')

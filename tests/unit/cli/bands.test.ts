@@ -26,8 +26,8 @@ describe('sheaf bands', () => {
   it('uses the kind\'s default prescription and keeps the set\'s CL when --cl matches it', async () => {
     const run = await sheaf(['bands', hessianFile, '--cl', '90'])
     const rows = JSON.parse(run.stdout).sets[0].bands.rows
-    // Symmetric Hessian ½√Σ(X_k⁺ − X_k⁻)² (DOMAIN §5, Nadolsky & Sullivan hep-ph/0110378), worked
-    // by hand: bin 0: ½√(2² + 0.5²) = ½√4.25; bin 1: ½√(2.5² + 1²) = ½√7.25.
+    // Symmetric Hessian ½√Σ(X_k⁺ − X_k⁻)² (J. Pumplin et al., hep-ph/0101032; shared/physics/README.md
+    // §13.1 Hessian sets), worked by hand: bin 0: ½√(2² + 0.5²) = ½√4.25; bin 1: ½√(2.5² + 1²) = ½√7.25.
     expect(rows[0].plus).toBeCloseTo(0.5 * Math.sqrt(4.25), 14)
     expect(rows[1].minus).toBeCloseTo(0.5 * Math.sqrt(7.25), 14)
     expect(JSON.parse(run.stdout).sets[0].bands.prescription).toBe('hessian-symmetric')
@@ -35,7 +35,7 @@ describe('sheaf bands', () => {
 
   it('writes one CSV line per set and bin', async () => {
     const run = await sheaf(['bands', hessianFile, '--format', 'csv'])
-    const lines = run.stdout.trimEnd().split('\n')
+    const lines = run.stdout.trimEnd().split('\r\n')
     expect(lines[0]).toBe('set,bin,central,plus,minus,relPlus,relMinus,pdfPlus,pdfMinus,alphas,prescription,clPercent')
     expect(lines).toHaveLength(3)
     expect(lines[1]!.startsWith('hessian,1,10,')).toBe(true)
@@ -45,8 +45,9 @@ describe('sheaf bands', () => {
     const doc = { kind: 'replicas', values: [[5], [4], [6], [5], [5.5], [7]], alphasMembers: [4, 5] }
     const run = await sheaf(['bands', tmp.file('alphas.json', JSON.stringify(doc))])
     const row = JSON.parse(run.stdout).sets[0].bands.rows[0]
-    // α_s part ½|X(α_s⁺) − X(α_s⁻)| = ½|7 − 5.5| = 0.75 (DOMAIN §5); the replicas 4, 6, 5 have
-    // sample standard deviation 1 (by hand), so the total is √(1 + 0.75²) = 1.25.
+    // α_s part ½|X(α_s⁺) − X(α_s⁻)| = ½|7 − 5.5| = 0.75 (PDF4LHC, arXiv:1510.03865; shared/physics/
+    // README.md §13.4 α_s members); the replicas 4, 6, 5 have sample standard deviation 1 (by
+    // hand), so the total is √(1 + 0.75²) = 1.25.
     expect(row.alphas).toBeCloseTo(0.75, 14)
     expect(row.pdfPlus).toBeCloseTo(1, 14)
     expect(row.plus).toBeCloseTo(1.25, 14)

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { benchMain } from '../../../shared/cli/bench'
+import { benchMain } from '../../../scripts/cli/bench'
 
 async function bench(argv: string[]) {
   let stdout = ''

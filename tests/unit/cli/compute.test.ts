@@ -60,7 +60,7 @@ describe('sheaf compute', () => {
 
   it('writes the values as CSV, one line per set, member and bin', async () => {
     const run = await sheaf(['compute', studyFile, hessianFile, '--format', 'csv', '--table', 'values'])
-    const lines = run.stdout.trimEnd().split('\n')
+    const lines = run.stdout.trimEnd().split('\r\n')
     expect(lines[0]).toBe('set,member,bin,value')
     expect(lines).toHaveLength(1 + 9 * 3)
     expect(lines[1]!.startsWith('toy-hessian,0,1,')).toBe(true)

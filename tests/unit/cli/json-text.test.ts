@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { lineColumn, locateJsonError, parseJsonText } from '../../../shared/cli/json-text'
+import { lineColumn, locateJsonError, parseJsonText } from '../../../scripts/cli/json-text'
 
 // Where each syntax error sits follows from the JSON grammar (RFC 8259 §2–§7) by hand.
 describe('locateJsonError', () => {

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
-import { describeFailure, UsageError } from '../../../shared/cli/errors'
-import { toCsv, toJson } from '../../../shared/cli/output'
+import { describeFailure, UsageError } from '../../../scripts/cli/errors'
+import { toCsv, toJson } from '../../../scripts/cli/output'
 import { oneLine, sheaf } from './run'
 
 describe('sheaf (top level)', () => {
@@ -46,7 +46,7 @@ describe('output', () => {
       .toBe('{\n  "v": [1, null],\n  "rows": [\n    { "a": 1, "b": "x" }\n  ]\n}\n')
   })
 
-  it('quotes CSV cells that need it (RFC 4180) and leaves non-finite numbers empty', () => {
-    expect(toCsv(['a', 'b'], [['x,y', Number.POSITIVE_INFINITY], ['say "hi"', 0.1]])).toBe('a,b\n"x,y",\n"say ""hi""",0.1\n')
+  it('quotes CSV cells that need it (RFC 4180), ends lines with CRLF and leaves non-finite numbers empty', () => {
+    expect(toCsv(['a', 'b'], [['x,y', Number.POSITIVE_INFINITY], ['say "hi"', 0.1]])).toBe('a,b\r\n"x,y",\r\n"say ""hi""",0.1\r\n')
   })
 })

@@ -1,6 +1,6 @@
 import { readFileSync } from 'node:fs'
 import { afterAll, describe, expect, it } from 'vitest'
-import { hessianClPercent } from '../../../shared/cli/verbs/members'
+import { hessianClPercent } from '../../../scripts/cli/verbs/members'
 import { parseSetFile } from '../../../shared/physics/sets'
 import { oneLine, scratch, sheaf } from './run'
 

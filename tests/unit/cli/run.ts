@@ -2,7 +2,7 @@
 import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
-import { main } from '../../../shared/cli'
+import { main } from '../../../scripts/cli'
 
 export interface Run {
   code: number

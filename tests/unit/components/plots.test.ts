@@ -16,7 +16,10 @@ const { default: BandPlot } = await import('~/components/plots/BandPlot.vue')
 const { default: CorrelationHeatmap } = await import('~/components/plots/CorrelationHeatmap.vue')
 const { default: DensityPlot } = await import('~/components/plots/DensityPlot.vue')
 
-const series = [{ id: 'a', label: 'A', central: [2, 1], plus: [0.2, 0.1], minus: [0.1, 0.1] }]
+/** A band in its JSON form; the relative widths are plus/|central| and minus/|central|. */
+const band = (central: number[], plus: number[], minus: number[]) =>
+  ({ central, plus, minus, relPlus: plus.map((p, i) => p / Math.abs(central[i]!)), relMinus: minus.map((m, i) => m / Math.abs(central[i]!)) })
+const series = [{ id: 'a', label: 'A', band: band([2, 1], [0.2, 0.1], [0.1, 0.1]) }]
 
 describe('plots', () => {
   beforeEach(() => vi.clearAllMocks())
@@ -50,15 +53,15 @@ describe('plots', () => {
     await flushPromises()
     expect(wrapper.find('[role=alert]').text()).toBe('The correlation matrix is not square: row 2 has 1 entries for 2 bins')
     expect(plotly.react).not.toHaveBeenCalled()
-    const density = mount(DensityPlot, { props: { x: [0.1, 1.2], q2GeV2: 10, curves: [{ id: 'g', label: 'g', central: [1, 1], plus: [0, 0], minus: [0, 0] }] } })
+    const density = mount(DensityPlot, { props: { x: [0.1, 1.2], q2GeV2: 10, curves: [{ id: 'g', label: 'g', band: band([1, 1], [0, 0], [0, 0]) }] } })
     await flushPromises()
     expect(density.find('[role=alert]').text()).toBe('x node 2 is 1.2; densities are plotted for 0 < x < 1')
   })
 
   it('draws densities on a log-x axis with the Q² note', async () => {
-    mount(DensityPlot, { props: { x: [1e-3, 0.1], q2GeV2: 100, curves: [{ id: 'g', label: 'g', central: [3, 1], plus: [0.1, 0.1], minus: [0.1, 0.1] }] } })
+    mount(DensityPlot, { props: { x: [1e-3, 0.1], q2GeV2: 100, curves: [{ id: 'g', label: 'g', band: band([3, 1], [0.1, 0.1], [0.1, 0.1]) }] } })
     await flushPromises()
-    const layout = plotly.react.mock.calls[0]![2] as unknown as { xaxis: { type: string }, annotations: Array<{ text: string }> }
+    const layout = (plotly.react.mock.calls[0] as unknown as unknown[])[2] as { xaxis: { type: string }, annotations: Array<{ text: string }> }
     expect(layout.xaxis.type).toBe('log')
     expect(layout.annotations[0]!.text).toBe('Q² = 100 GeV²')
   })

@@ -1,8 +1,9 @@
 // @vitest-environment happy-dom
 import { flushPromises, mount } from '@vue/test-utils'
 import { afterEach, describe, expect, it, vi } from 'vitest'
-import SetSummary from '~/components/sets/SetSummary.vue'
-import SetUploadForm from '~/components/sets/SetUploadForm.vue'
+import { dateTimeText } from '#shared/utils/dates'
+import SetsSummary from '~/components/sets/Summary.vue'
+import SetsUploadForm from '~/components/sets/UploadForm.vue'
 
 /** A stand-in for XMLHttpRequest that answers every POST with `reply`. */
 function fakeXhr(reply: { status: number, body: unknown }) {
@@ -36,7 +37,7 @@ async function choose(wrapper: ReturnType<typeof mount>, file: File) {
   await input.trigger('change')
 }
 
-describe('SetUploadForm', () => {
+describe('SetsUploadForm', () => {
   afterEach(() => vi.unstubAllGlobals())
 
   it('posts the file with the extra fields and lists the located problems of a refused set', async () => {
@@ -44,7 +45,7 @@ describe('SetUploadForm', () => {
       { message: 'value is NaN', member: 3, xIndex: 17, q2Index: 2, flavour: 21 },
       { message: 'expected a number', line: 12, column: 4 }
     ] } } })
-    const wrapper = mount(SetUploadForm, { props: { url: '/api/sets', fields: { name: 'mine' } } })
+    const wrapper = mount(SetsUploadForm, { props: { url: '/api/sets', fields: { name: 'mine' } } })
     await choose(wrapper, new File(['abc'], 'bramble.sheafset'))
     await wrapper.find('form').trigger('submit')
     await flushPromises()
@@ -62,7 +63,7 @@ describe('SetUploadForm', () => {
 
   it('accepts issues given directly as data, and refuses a file over the limit before sending', async () => {
     const sent = fakeXhr({ status: 422, body: { statusMessage: 'Bad grid', data: [{ message: 'x nodes not increasing', xIndex: 4 }] } })
-    const wrapper = mount(SetUploadForm, { props: { url: '/api/sets', maxBytes: 2 ** 20 } })
+    const wrapper = mount(SetsUploadForm, { props: { url: '/api/sets', maxBytes: 2 ** 20 } })
     await choose(wrapper, new File([new Uint8Array(2 ** 20 + 1)], 'big.set'))
     await wrapper.find('form').trigger('submit')
     expect(sent).toHaveLength(0)
@@ -75,7 +76,7 @@ describe('SetUploadForm', () => {
 
   it('emits the stored set on success', async () => {
     fakeXhr({ status: 201, body: { id: 's1', name: 'Bramble-H' } })
-    const wrapper = mount(SetUploadForm, { props: { url: '/api/sets' } })
+    const wrapper = mount(SetsUploadForm, { props: { url: '/api/sets' } })
     await choose(wrapper, new File(['x'], 'ok.set'))
     await wrapper.find('form').trigger('submit')
     await flushPromises()
@@ -84,20 +85,21 @@ describe('SetUploadForm', () => {
   })
 })
 
-describe('SetSummary', () => {
+describe('SetsSummary', () => {
   const set = {
     name: 'Bramble-H', version: '1.2', kind: 'hessian-pairs', memberCount: 41, confidenceLevelPercent: 90,
     xRange: [1e-5, 1] as [number, number], q2RangeGeV2: [1.69, 1e8] as [number, number],
     target: { type: 'nucleus' as const, z: 26, a: 56 }, addedBy: 'Ana Ruiz', addedAt: '2025-03-01T09:30:00Z'
   }
   it('shows kind, members, CL, ranges, target and who added it', () => {
-    const text = mount(SetSummary, { props: { set }, global: { stubs: { NuxtLink: true } } }).text()
-    for (const part of ['Hessian, 20 eigenvector pairs', '41 (central + 40)', '90% as published', '10⁻⁵ to 1', '1.69 to 10⁸ GeV²', 'nucleus Z = 26, A = 56', 'Ana Ruiz on 2025-03-01']) {
+    const text = mount(SetsSummary, { props: { set }, global: { stubs: { NuxtLink: true } } }).text()
+    // the time in the runtime's own zone, in the app's one date format (its own tests pin the zone)
+    for (const part of ['Hessian, 20 eigenvector pairs', '41 (central + 40)', '90% as published', '10⁻⁵ to 1', '1.69 to 10⁸ GeV²', 'nucleus Z = 26, A = 56', `Ana Ruiz on ${dateTimeText('2025-03-01T09:30:00Z')}`]) {
       expect(text).toContain(part)
     }
   })
   it('names replicas by count', () => {
-    const text = mount(SetSummary, { props: { set: { ...set, kind: 'replicas', memberCount: 101, target: { type: 'proton' as const } } }, global: { stubs: { NuxtLink: true } } }).text()
+    const text = mount(SetsSummary, { props: { set: { ...set, kind: 'replicas', memberCount: 101, target: { type: 'proton' as const } } }, global: { stubs: { NuxtLink: true } } }).text()
     expect(text).toContain('Monte Carlo, 100 replicas')
     expect(text).toContain('proton')
   })

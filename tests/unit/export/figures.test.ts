@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest'
 import { CORRELATION_SCALE, bandFigure, correlationFigure, eigenvectorFigure, houseConfig, withAlpha } from '#shared/export/figures'
+import { makeBands } from '#shared/physics/uncertainty/band'
 
-const series = (id: string, central: number[], rel = 0.1) => ({ id, label: id.toUpperCase(), central, plus: central.map(c => c * rel), minus: central.map(c => c * rel / 2) })
+const series = (id: string, central: number[], rel = 0.1) => ({ id, label: id.toUpperCase(), band: makeBands(central, central.map(c => c * rel), central.map(c => c * rel / 2)) })
 
 describe('bandFigure', () => {
   it('draws touching bins as one stepped outline and breaks at gaps', () => {

@@ -30,7 +30,7 @@ describe('bandsToCsv', () => {
 
   it('refuses bands that do not match the bins', () => {
     const bad = handMadeResult()
-    bad.bands[1]!.minus = [0.1]
+    bad.bands[1]!.band.minus = [0.1]
     expect(() => bandsToCsv(bad)).toThrow('Band hessian-sym has 1 minus values for 3 bins')
   })
 })

@@ -1,4 +1,5 @@
 import type { ResultForExport } from '#shared/export'
+import { bandToJson, makeBands } from '#shared/physics/uncertainty/band'
 
 /** A hand-made result (invented numbers, no physics claim) to exercise the formatters. */
 export function handMadeResult(): ResultForExport {
@@ -27,9 +28,10 @@ export function handMadeResult(): ResultForExport {
       { mMin: 300, mMax: 500, note: null },
       { mMin: 500, mMax: 1e4, note: null }
     ],
+    // one band in the engine's form, one in the JSON form the API sends
     bands: [
-      { id: 'hessian-asym', label: 'Hessian, asymmetric', central: [1.23456, 0.0996123, 1.234e-5], plus: [0.01234, 0.00996, 2.1e-7], minus: [0.0156, 0.0031, 1.9e-7] },
-      { id: 'hessian-sym', label: 'Hessian, symmetric', central: [1.23456, 0.0996123, 1.234e-5], plus: [0.014, 0.0065, 2e-7], minus: [0.014, 0.0065, 2e-7] }
+      { id: 'hessian-asym', label: 'Hessian, asymmetric', band: makeBands([1.23456, 0.0996123, 1.234e-5], [0.01234, 0.00996, 2.1e-7], [0.0156, 0.0031, 1.9e-7]) },
+      { id: 'hessian-sym', label: 'Hessian, symmetric', band: bandToJson(makeBands([1.23456, 0.0996123, 1.234e-5], [0.014, 0.0065, 2e-7], [0.014, 0.0065, 2e-7])) }
     ]
   }
 }

@@ -1,7 +1,7 @@
 import nodemailer, { type SendMailOptions } from 'nodemailer'
 import { describe, expect, it } from 'vitest'
-import { decodeHeader, decodeQuotedPrintable, extractLinks, parseMail } from '../../../server/mail/mime'
-import { invitationMail } from '../../../server/mail/templates'
+import { decodeHeader, decodeQuotedPrintable, extractLinks, parseMail } from '../../../server/domain/mail/mime'
+import { invitationMail } from '../../../server/domain/mail/templates'
 
 // Messages are composed by nodemailer itself (stream transport), exactly as the app sends them.
 async function compose(message: SendMailOptions) {

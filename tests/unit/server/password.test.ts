@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { hashPassword, verifyPassword } from '../../../server/utils/password'
+import { hashPassword, verifyPassword } from '../../../server/domain/accounts/password'
 
 describe('scrypt password hashes', () => {
   it('verifies the right password and rejects a wrong one', async () => {

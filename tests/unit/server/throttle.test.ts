@@ -1,7 +1,7 @@
 import RedisMock from 'ioredis-mock'
 import type { Redis } from 'ioredis'
 import { beforeEach, describe, expect, it } from 'vitest'
-import { createThrottle } from '../../../server/utils/throttle'
+import { createThrottle } from '../../../server/domain/accounts/throttle'
 
 describe('failure throttle', () => {
   let redis: Redis

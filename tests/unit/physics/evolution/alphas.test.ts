@@ -10,7 +10,8 @@ const masses = { charm: 1.4, bottom: 4.75, top: 172.5 }
 const vfns: FlavourScheme = { type: 'variable', nf: 6, massesGeV: masses }
 const fixed = (nf: 3 | 4 | 5 | 6): FlavourScheme => ({ type: 'fixed', nf, massesGeV: masses })
 
-describe('one-loop α_s (DOMAIN.md §2: 1/α_s(μ²) = 1/α_s(μ₀²) + (β₀/4π) ln(μ²/μ₀²), β₀ = 11 − 2n_f/3)', () => {
+// Ellis–Stirling–Webber ch. 2; see shared/physics/README.md, "Running coupling"
+describe('one-loop α_s (1/α_s(μ²) = 1/α_s(μ₀²) + (β₀/4π) ln(μ²/μ₀²), β₀ = 11 − 2n_f/3)', () => {
   it.each([
     // β₀ = 11 − 2n_f/3, Ellis–Stirling–Webber ch. 2
     [3, 9], [4, 25 / 3], [5, 23 / 3], [6, 7]

@@ -1,6 +1,10 @@
+import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
+import { planForModel } from '~/shared/physics/evolution/build-set'
 import { q2Nodes, thresholdPairs } from '~/shared/physics/evolution/q2-grid'
 import { xNodes } from '~/shared/physics/evolution/x-grid'
+import { compileInput } from '~/shared/physics/input/model'
+import { parseInputText } from '~/shared/physics/input/parse'
 import type { FlavourScheme } from '~/shared/physics/types'
 import { expectClose } from '../close'
 
@@ -54,5 +58,17 @@ describe('Q² nodes with heavy-quark thresholds', () => {
     [{ count: 3, maxGeV2: 1e8 }, /count in 4\.\.2000/]
   ])('refuse %j', (spec, message) => {
     expect(() => q2Nodes(spec, 2, vfns)).toThrow(message)
+  })
+})
+
+describe('the evolution plan of a fit', () => {
+  it('Quillon-22 on 100 x × 40 Q² values: 43 Q² nodes, the charm, bottom and top thresholds doubled', () => {
+    // μ₀² = 1.69 GeV² lies below m_c² = 1.96 GeV² (samples/fits/quillon-22.json), so all three
+    // thresholds are interior: 40 distinct values + 3 repeated nodes.
+    const model = compileInput(parseInputText(readFileSync('samples/fits/quillon-22.json', 'utf8'), 'quillon-22.json'))
+    const plan = planForModel(model, { x: { count: 100, min: 1e-6, max: 0.99 }, q2: { count: 40, maxGeV2: 1e8 } })
+    expect(plan.x.length).toBe(100)
+    expect(plan.q2.length).toBe(43)
+    expect(thresholdPairs(plan.q2).map(p => p.q2GeV2)).toEqual([1.4 ** 2, 4.75 ** 2, 172.5 ** 2])
   })
 })

@@ -7,6 +7,23 @@ import { xNodes } from '~/shared/physics/evolution/x-grid'
 import { complex } from '~/shared/physics/input/complex'
 import { expectClose } from '../close'
 
+// SU(3) colour factors with N_c = 3: C_F = (N_c² − 1)/(2N_c) = 4/3, C_A = N_c = 3, T_R = 1/2
+// (SU(N) group theory, e.g. Ellis–Stirling–Webber, "QCD and Collider Physics", ch. 1 — chapter
+// from memory). The reference integrals below use these literal values, not the engine's.
+const cf = 4 / 3
+const ca = 3
+const tr = 1 / 2
+
+describe('colour factors and the δ(1 − z) coefficient of P_gg', () => {
+  it('C_F = 4/3, C_A = 3, T_R = 1/2', () => {
+    expect([CF, CA, TR]).toEqual([cf, ca, tr])
+  })
+
+  it.each([[3, 27 / 6], [4, 25 / 6], [5, 23 / 6], [6, 21 / 6]])('(11 C_A − 4 n_f T_R)/6 = β₀/2 with n_f = %i: %f (hand-worked: (33 − 2n_f)/6)', (nf, expected) => {
+    expectClose(pggDelta(nf), expected, 1e-15)
+  })
+})
+
 describe('LO anomalous dimensions γ(N) = ∫ z^{N−1} P(z) dz (Ellis–Stirling–Webber ch. 4)', () => {
   it('conserve quark number: γ_qq(1) = 0', () => {
     expect(Math.abs(gammaQQ(complex(1)).re)).toBeLessThan(1e-14)
@@ -48,15 +65,14 @@ describe('LO anomalous dimensions γ(N) = ∫ z^{N−1} P(z) dz (Ellis–Stirlin
       }
       return { re, im }
     }
-    const gq = mellin(z => CF * (1 + (1 - z) ** 2) / z)
-    const qg = mellin(z => TR * (z * z + (1 - z) ** 2))
+    const gq = mellin(z => cf * (1 + (1 - z) ** 2) / z)
+    const qg = mellin(z => tr * (z * z + (1 - z) ** 2))
     const a = gammaGQ(n)
     const b = gammaQG(n)
     expectClose(gq.re, a.re, 1e-9, 1e-12)
     expectClose(gq.im, a.im, 1e-9, 1e-12)
     expectClose(qg.re, b.re, 1e-9, 1e-12)
     expectClose(qg.im, b.im, 1e-9, 1e-12)
-    expect(pggDelta(5)).toBeCloseTo((11 * CA - 4 * 5 * TR) / 6, 15)
   })
 })
 
@@ -89,10 +105,10 @@ describe('x-space convolution matrices (plus distributions exact)', () => {
 
   it.each([10, 60, 100, 125, 140])('reproduce ∫_x^1 dz P(z) F(x/z) at node %i to 1e-7', (i) => {
     const xi = x[i]!
-    const qq = integ(z => CF * ((1 + z * z) * S(xi / z) - 2 * S(xi)) / (1 - z), xi) + CF * (2 * Math.log1p(-xi) + 1.5) * S(xi)
-    const gq = integ(z => CF * (1 + (1 - z) ** 2) / z * S(xi / z), xi)
-    const qg = integ(z => TR * (z * z + (1 - z) ** 2) * G(xi / z), xi)
-    const gg = integ(z => 2 * CA * ((z * G(xi / z) - G(xi)) / (1 - z) + ((1 - z) / z + z * (1 - z)) * G(xi / z)), xi) + 2 * CA * Math.log1p(-xi) * G(xi)
+    const qq = integ(z => cf * ((1 + z * z) * S(xi / z) - 2 * S(xi)) / (1 - z), xi) + cf * (2 * Math.log1p(-xi) + 1.5) * S(xi)
+    const gq = integ(z => cf * (1 + (1 - z) ** 2) / z * S(xi / z), xi)
+    const qg = integ(z => tr * (z * z + (1 - z) ** 2) * G(xi / z), xi)
+    const gg = integ(z => 2 * ca * ((z * G(xi / z) - G(xi)) / (1 - z) + ((1 - z) / z + z * (1 - z)) * G(xi / z)), xi) + 2 * ca * Math.log1p(-xi) * G(xi)
     expectClose(apply(m.qq, S, i), qq, 1e-7)
     expectClose(apply(m.gq, S, i), gq, 1e-7)
     expectClose(apply(m.qg, G, i), qg, 1e-7)

@@ -20,7 +20,8 @@ describe('integrals over x grids', () => {
   })
 })
 
-describe('momentum and valence sum rules after evolution (DOMAIN.md §1), grid 130 nodes from 1e-10', () => {
+// see shared/physics/README.md, "Sum rules"
+describe('momentum and valence sum rules after evolution, grid 130 nodes from 1e-10', () => {
   const fits = [
     ['toy input of hep-ph/0204316', compileInput(load('benchmark-toy-input.json'))],
     ['Quillon-22 central', compileInput(quillon)],

@@ -15,7 +15,8 @@ const quillon = compileInput(load('quillon-22.json'))
 const toy = compileInput(load('benchmark-toy-input.json'))
 const at = (g: MemberGrid, iq: number, ix: number, pdg: number) => g.values[(iq * g.x.length + ix) * g.flavours.length + g.flavours.indexOf(pdg)]!
 
-describe('heavy quarks in the variable-flavour scheme (DOMAIN.md §2: start at zero at μ² = m_h²)', () => {
+// LO matching, common practice; see shared/physics/README.md, "Flavour basis and thresholds"
+describe('heavy quarks in the variable-flavour scheme (start at zero at μ² = m_h²)', () => {
   const plan = planForModel(quillon, { x: { count: 60, min: 1e-5, max: 0.95 }, q2: { count: 30, maxGeV2: 1e6 } })
   const grid = evolveModel(quillon, plan)
   const pairs = thresholdPairs(grid.q2)
@@ -64,7 +65,7 @@ describe('heavy quarks in the variable-flavour scheme (DOMAIN.md §2: start at z
   })
 })
 
-describe('a first explicit Q² node exactly on a threshold above μ₀² (DOMAIN.md §2: the heavy quark starts at zero at μ² = m_h²)', () => {
+describe('a first explicit Q² node exactly on a threshold above μ₀² (the heavy quark starts at zero at μ² = m_h²)', () => {
   // Toy input: μ₀² = 2 GeV², m_b² = 20.25, m_t² = 30625 GeV²; Quillon-22: μ₀² = 1.69, m_c² = 1.96 GeV².
   it.each([
     ['b from m_b² = 20.25 GeV² (toy input)', toy, [20.25, 1e4], 5],
@@ -86,7 +87,8 @@ describe('a first explicit Q² node exactly on a threshold above μ₀² (DOMAIN
       expect(value).toBeGreaterThan(0)
       // Same steps either way: identical to rounding.
       expect(Math.abs(value / at(withStart, lastWithStart, ix, pdg) - 1)).toBeLessThan(1e-12)
-      // Independent method (issue 3 goal: ≤ 1e-4 relative for x ≤ 0.7).
+      // Independent method, to the x-space accuracy goal of ≤ 1e-4 relative for x ≤ 0.7
+      // (see shared/physics/README.md, "x-space method").
       expect(Math.abs(value / mellin[p * 13 + slotOf(pdg)]! - 1)).toBeLessThan(1e-4)
     })
   })

@@ -15,9 +15,10 @@ const rho = [
 const cov = rho.map((r, i) => r.map((v, j) => v * sigma[i]! * sigma[j]!))
 const p0 = [0.7, 3.4, -1, 2.5, 0.2]
 
-describe('Hessian eigenvector pairs p_k^± = p₀ ± T√λ_k e_k (DOMAIN.md §5)', () => {
+// see shared/physics/README.md, "Members from a fit"
+describe('Hessian eigenvector pairs p_k^± = p₀ ± T√λ_k e_k', () => {
   it.each([
-    // For X linear in p, ½√(Σ_k (X_k⁺ − X_k⁻)²) = T√(gᵀCg) exactly (DOMAIN.md §5; the Hessian
+    // For X linear in p, ½√(Σ_k (X_k⁺ − X_k⁻)²) = T√(gᵀCg) exactly (the Hessian
     // method of Pumplin et al., hep-ph/0101032).
     [1, [1, 0, 0, 0, 0]], [1, [0.3, -2, 0.5, 1, 0.1]], [1.6448536, [2, 1, -1, 0.5, -0.3]], [3, [0, 0, 0, 0, 1]]
   ])('reproduces T√(gᵀCg) for a linear observable (T = %f, g = %j)', (t, g) => {

@@ -16,7 +16,8 @@ function sampleStats(reps: Float64Array[]) {
   return { mean, c }
 }
 
-describe('Monte-Carlo replicas p_r = p₀ + L z_r, C = L Lᵀ (DOMAIN.md §5)', () => {
+// see shared/physics/README.md, "Members from a fit"
+describe('Monte-Carlo replicas p_r = p₀ + L z_r, C = L Lᵀ', () => {
   const all = replicaParameters(p0, cov, 25600, 7)
   const sizes = [100, 400, 1600, 6400, 25600]
   // Deviations in units of their expected statistical size: σ_i/√N for the mean and

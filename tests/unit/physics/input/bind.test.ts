@@ -11,7 +11,8 @@ const load = (f: string) => parseInputText(readFileSync(`samples/fits/${f}`, 'ut
 const quillon = load('quillon-22.json')
 const ostrand = load('ostrand-pb24.json')
 
-describe('binding parameters and imposing the sum rules (DOMAIN.md §1)', () => {
+// see shared/physics/README.md, "Sum rules"
+describe('binding parameters and imposing the sum rules', () => {
   const model = compileInput(quillon)
 
   it.each([
@@ -44,7 +45,8 @@ describe('binding parameters and imposing the sum rules (DOMAIN.md §1)', () => 
   })
 })
 
-describe('nuclear modifications (DOMAIN.md §4: f^{p/A} = R·f^p)', () => {
+// see shared/physics/README.md, "Nuclear targets and isospin"
+describe('nuclear modifications (f^{p/A} = R·f^p)', () => {
   const model = compileInput(ostrand, quillon)
   const base = compileInput(quillon)
 

@@ -71,7 +71,7 @@ describe('demo fits in samples/fits (invented): physically sensible for every me
     const model = fits[0]![1]
     expect(model.parameterNames.length).toBeGreaterThanOrEqual(20)
     expect(model.members).toMatchObject({ type: 'hessian', confidenceLevelPercent: 90 })
-    // Φ⁻¹(0.95) (two-sided 90% Gaussian interval; DOMAIN.md §5 quotes 1.64485), from jstat
+    // Φ⁻¹(0.95) (two-sided 90% Gaussian interval; see shared/physics/README.md, "Confidence levels"), from jstat
     expectClose((model.members as { tolerance: number }).tolerance, jStat.normal.inv(0.95, 0, 1), 1e-7)
     expect(fits[1]![1].members).toMatchObject({ type: 'replicas', count: 100 })
   })

@@ -3,6 +3,7 @@ import {
   interpolateFlavours, interpolateMany, interpolateXf, interpolationStencil, interpolationWeights,
   lagrangeWeights, prepareAxes
 } from '../../../../shared/physics/interpolation'
+import { uniformStream } from '../../../../shared/physics/random'
 import type { MemberGrid } from '../../../../shared/physics/types'
 
 // Expected values come from the analytic functions sampled onto the grids here: a bicubic
@@ -32,13 +33,7 @@ function sample(x: Float64Array, q2: Float64Array, fns: Array<(x: number, q2: nu
   return { x, q2, flavours: fns.map((_, i) => [21, 2, -2][i]!), values }
 }
 
-const pseudoRandom = (() => {
-  let state = 12345
-  return () => {
-    state = (state * 1103515245 + 12345) % 2147483648
-    return state / 2147483648
-  }
-})()
+const pseudoRandom = uniformStream(12345, { purpose: 'synthetic', index: 0 })
 
 describe('Lagrange weights', () => {
   it('are the textbook cubic weights at the midpoint of equal spacing', () => {

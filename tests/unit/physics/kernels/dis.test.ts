@@ -5,7 +5,8 @@ import {
 } from '../../../../shared/physics/kernels'
 import type { Hadron, XfFunction } from '../../../../shared/physics/kernels'
 
-// Formulas: PDG 2024 review "Structure functions" (LO parton model), restated in DOMAIN.md §3.
+// Formulas: PDG 2024 review "Structure functions" (LO parton model); see
+// shared/physics/README.md, "DIS neutral current" and "DIS charged current".
 // The toy densities are constants chosen for easy arithmetic; each expected value is worked by
 // hand in the comment beside it.
 
@@ -57,7 +58,7 @@ describe('DIS neutral current (photon exchange)', () => {
 
 describe('DIS charged current (ν, ν̄)', () => {
   it.each([
-    // CKM-diagonal, DOMAIN.md §3: F₂^{νp} = 2x(d + s + ū + c̄) = 2 (0.2 + 0.05 + 0.1 + 0.02) = 0.74
+    // CKM-diagonal (PDG "Structure functions"): F₂^{νp} = 2x(d + s + ū + c̄) = 2 (0.2 + 0.05 + 0.1 + 0.02) = 0.74
     ['F2', 'neutrino', 0.74],
     // xF₃^{νp} = 2x(d + s − ū − c̄) = 2 (0.25 − 0.12) = 0.26
     ['xF3', 'neutrino', 0.26],

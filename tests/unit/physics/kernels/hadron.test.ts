@@ -4,10 +4,11 @@ import {
   luminosityTerm, vectorBosonTerm
 } from '../../../../shared/physics/kernels'
 import type { XfFunction } from '../../../../shared/physics/kernels'
+import { expectClose } from '../close'
 
 // Formulas: Ellis–Stirling–Webber, "QCD and Collider Physics", ch. 9 (Drell–Yan, W/Z narrow
-// width, gg → H in the heavy-top limit), as restated in DOMAIN.md §3; parton luminosity as
-// defined there. Toy densities are constants or powers chosen so each number can be worked by
+// width), gg → H in the heavy-top limit and parton luminosities as stated in
+// shared/physics/README.md, "Kernels". Toy densities are constants or powers chosen so each number can be worked by
 // hand; the arithmetic is in the comments.
 
 const flat = (c: number): XfFunction => pdg => (Math.abs(pdg) >= 1 && Math.abs(pdg) <= 5 ? c : 0)
@@ -33,7 +34,7 @@ describe('W and Z production (narrow width)', () => {
     // pairs u d̄, d̄ u, c s̄, s̄ c each 0.5 · 0.5: Σ = 1; dσ/dy = 6725.989 pb
     expect(dSigmaDyVectorBoson(flat(0.5), 'W+', 0, { sqrtSGeV: 13000, ckm: 'diagonal' })).toBeCloseTo(6725.989, 2)
     // With PDG CKM the rows u and c sum to 1.0000014 and 0.9999990: the same to 1e-5.
-    expect(dSigmaDyVectorBoson(flat(0.5), 'W+', 0, { sqrtSGeV: 13000 }) / 6725.989 - 1).toBeLessThan(1e-5)
+    expectClose(dSigmaDyVectorBoson(flat(0.5), 'W+', 0, { sqrtSGeV: 13000 }), 6725.989, 1e-5)
   })
 
   it('hand-worked dσ/dy(Z) at y = 0 with every x·q = 0.5', () => {

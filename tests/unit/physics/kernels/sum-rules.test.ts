@@ -5,7 +5,8 @@ import type { XfFunction } from '../../../../shared/physics/kernels'
 import { integrateGaussLegendre } from '../../../../shared/physics/quadrature'
 
 // Quark-parton-model sum rules (PDG 2024 review "Structure functions", section on sum rules;
-// DOMAIN.md §3): Gross–Llewellyn Smith ∫ ½ (F₃^{νN} + F₃^{ν̄N}) dx = 3 for an isoscalar N;
+// see shared/physics/README.md, "DIS sum rules"):
+// Gross–Llewellyn Smith ∫ ½ (F₃^{νN} + F₃^{ν̄N}) dx = 3 for an isoscalar N;
 // Adler ∫ dx/x (F₂^{ν̄p} − F₂^{νp}) = 2 (equivalently ∫ dx/x (F₂^{νn} − F₂^{νp}) = 2);
 // Gottfried ∫ dx/x (F₂^{μp} − F₂^{μn}) = 1/3 + (2/3) ∫ (ū − d̄) dx.
 // The toy densities are analytic: valence normalised with jstat's Beta function to ∫ u_v = 2,

@@ -3,7 +3,8 @@ import { alphasShift, alphasVariationError } from '../../../../shared/physics/un
 import { memberValuesFromRows } from '../../../../shared/physics/uncertainty/matrix'
 import { expectClose } from '../close'
 
-describe('α_s variation ΔX = ½|X(α_s⁺) − X(α_s⁻)| (DOMAIN §5)', () => {
+// PDF4LHC recommendations, arXiv:1510.03865; see shared/physics/README.md, "α_s members"
+describe('α_s variation ΔX = ½|X(α_s⁺) − X(α_s⁻)|', () => {
   const m = memberValuesFromRows([[10, 5], [11, 5], [9, 5], [9.4, 5.3], [10.2, 4.9]])
   it.each([
     // bin 0: ½(10.2 − 9.4) = 0.4; bin 1: ½(4.9 − 5.3) = −0.2, magnitude 0.2

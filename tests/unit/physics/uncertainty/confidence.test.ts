@@ -35,7 +35,8 @@ describe('two-sided Gaussian quantiles', () => {
 })
 
 describe('CL rescaling', () => {
-  it('90% → 68% is 1/1.64485 (DOMAIN §5)', () => {
+  // see shared/physics/README.md, "Confidence levels"
+  it('90% → 68% is 1/1.64485', () => {
     expectClose(clScaleFactor(90, 68), 1 / 1.644854, 0, 3e-7)
   })
 

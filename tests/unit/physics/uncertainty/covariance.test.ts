@@ -8,7 +8,8 @@ import { expectClose } from '../close'
 // Same two-bin, two-pair matrix as hessian.test.ts: d = ½(X⁺ − X⁻) is bin 0 (1.5, −0.25), bin 1 (0.75, 0.5).
 const pairs = memberValuesFromRows([[10, 4], [12, 4.5], [9, 3], [10.5, 5], [11, 4]])
 
-describe('bin-to-bin covariance (DOMAIN §5)', () => {
+// see shared/physics/README.md, "Covariance and correlation"
+describe('bin-to-bin covariance', () => {
   it('Hessian pairs Σ_k ¼(X_ik⁺ − X_ik⁻)(X_jk⁺ − X_jk⁻), hand-worked', () => {
     // C₀₀ = 1.5² + 0.25² = 2.3125; C₁₁ = 0.75² + 0.5² = 0.8125; C₀₁ = 1.5·0.75 − 0.25·0.5 = 1
     const c = binCovariance(pairs, { kind: 'hessian-pairs' })

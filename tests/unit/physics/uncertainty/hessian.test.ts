@@ -12,7 +12,8 @@ const pairs = memberValuesFromRows([
   [11, 4] // X₂⁻
 ])
 
-describe('symmetric Hessian ½√Σ(X⁺−X⁻)² (DOMAIN §5, Pumplin et al. hep-ph/0101032)', () => {
+// see shared/physics/README.md, "Hessian sets"
+describe('symmetric Hessian ½√Σ(X⁺−X⁻)² (Pumplin et al. hep-ph/0101032)', () => {
   it.each([
     // bin 0: X⁺−X⁻ = 12−9 = 3 and 10.5−11 = −0.5 → ½√(9 + 0.25) = ½√9.25
     { bin: 0, expected: 0.5 * Math.sqrt(9.25) },
@@ -54,7 +55,7 @@ describe('asymmetric Hessian (Nadolsky & Sullivan hep-ph/0110378)', () => {
   })
 })
 
-describe('one-sided √Σ(X_k − X₀)² (DOMAIN §5)', () => {
+describe('one-sided √Σ(X_k − X₀)² (common practice)', () => {
   it.each([
     // shifts 3, −4, 0 → √(9 + 16 + 0) = 5
     { rows: [[10], [13], [6], [10]], expected: 5 },

@@ -3,7 +3,8 @@ import { makeBands } from '../../../../shared/physics/uncertainty/band'
 import { addBandsInQuadrature, addInQuadrature } from '../../../../shared/physics/uncertainty/in-quadrature'
 import { expectClose } from '../close'
 
-describe('independent uncertainties in quadrature (nuclear ⊕ baseline, DOMAIN §4)', () => {
+// see shared/physics/README.md, "Combining sets" and "Nuclear targets and isospin".
+describe('independent uncertainties in quadrature (nuclear ⊕ baseline)', () => {
   it('hand-worked: (+3 −3) ⊕ (+4 −0) = (+5 −3)', () => {
     const nuclear = makeBands([10, 2], [3, 0.3], [3, 0.4])
     const baseline = makeBands([10, 2], [4, 0.4], [0, 0.3])

@@ -5,9 +5,10 @@ import { binCovariance, observableCorrelation } from '../../../../shared/physics
 import type { MemberValues } from '../../../../shared/physics/uncertainty/matrix'
 import { expectClose } from '../close'
 
-// Hessian linear-propagation identity (DOMAIN §5; J. Pumplin et al., hep-ph/0101032): with
-// C = Σ_k λ_k e_k e_kᵀ and members p_k± = p₀ ± T√λ_k e_k, a linear observable X = gᵀp has
-// ½√Σ_k(X_k⁺ − X_k⁻)² = T√(gᵀCg) exactly, and Σ_k ¼(X_k⁺−X_k⁻)(Y_k⁺−Y_k⁻) = T² gᵀCh.
+// Hessian linear-propagation identity (J. Pumplin et al., hep-ph/0101032; see
+// shared/physics/README.md, "Hessian sets"): with C = Σ_k λ_k e_k e_kᵀ and members
+// p_k± = p₀ ± T√λ_k e_k, a linear observable X = gᵀp has ½√Σ_k(X_k⁺ − X_k⁻)² = T√(gᵀCg)
+// exactly, and Σ_k ¼(X_k⁺−X_k⁻)(Y_k⁺−Y_k⁻) = T² gᵀCh.
 
 const nParams = 5
 // A fixed, well-conditioned parameter covariance C = A Aᵀ + 0.05·1 (A arbitrary but deterministic).

@@ -4,12 +4,12 @@ import { computeBands } from '../../../../shared/physics/uncertainty/bands'
 import { binCovariance } from '../../../../shared/physics/uncertainty/covariance'
 import type { MemberValues } from '../../../../shared/physics/uncertainty/matrix'
 import { reduceReplicasToHessian } from '../../../../shared/physics/uncertainty/pca'
-import { createNormalGenerator } from '../../../../shared/physics/uncertainty/prng'
+import { normalStream } from '../../../../shared/physics/random'
 import { expectClose } from '../close'
 
 /** n replicas in `bins` bins: μ_b + Σ_j a_rj·u_jb + noise·z, u_j fixed smooth shapes. */
 function structuredReplicas(n: number, bins: number, shapes: number, noise: number, seed: number): MemberValues {
-  const normals = createNormalGenerator(seed)
+  const normals = normalStream(seed, { purpose: 'synthetic', index: 0 })
   const values = new Float64Array((n + 1) * bins)
   for (let b = 0; b < bins; b++) values[b] = 5 + b
   for (let r = 1; r <= n; r++) {

@@ -4,20 +4,20 @@ import { binCovariance } from '../../../../shared/physics/uncertainty/covariance
 import { hessianSymmetric } from '../../../../shared/physics/uncertainty/hessian'
 import { memberValuesFromRows, type MemberValues } from '../../../../shared/physics/uncertainty/matrix'
 import { hessianToReplicas, poolSets } from '../../../../shared/physics/uncertainty/pooling'
-import { createNormalGenerator } from '../../../../shared/physics/uncertainty/prng'
+import { normalStream } from '../../../../shared/physics/random'
 import { expectClose } from '../close'
 
 // Two bins, two pairs: ΔX = ½√9.25 and ½√3.25 (hessian.test.ts), correlated bins.
 const hessian = memberValuesFromRows([[10, 4], [12, 4.5], [9, 3], [10.5, 5], [11, 4]])
 
 function gaussianReplicaSet(n: number, mu: number, sigma: number, seed: number): MemberValues {
-  const z = createNormalGenerator(seed).fill(n)
+  const z = normalStream(seed, { purpose: 'synthetic', index: 0 }).fill(n)
   return memberValuesFromRows([[mu], ...Array.from(z, v => [mu + sigma * v])])
 }
 
 describe('Hessian → replicas (Watt & Thorne arXiv:1205.4024)', () => {
   const n = 4000
-  const replicas = hessianToReplicas(hessian, 'hessian-pairs', n, createNormalGenerator(2024))
+  const replicas = hessianToReplicas(hessian, 'hessian-pairs', n, normalStream(2024, { purpose: 'synthetic', index: 0 }))
   const pooled = poolSets([{ matrix: hessian, kind: 'hessian-pairs' }], { replicasPerSet: n, seed: 2024 })
 
   it('member 0 is X₀ and there are N replicas', () => {
@@ -49,6 +49,18 @@ describe('Hessian → replicas (Watt & Thorne arXiv:1205.4024)', () => {
   it('is reproducible for a seed', () => {
     const again = poolSets([{ matrix: hessian, kind: 'hessian-pairs' }], { replicasPerSet: n, seed: 2024 })
     expect(again.replicas.values).toEqual(pooled.replicas.values)
+  })
+
+  it('draws the set at position s from its own stream { purpose: \'pooling\', index: s }', () => {
+    const direct = hessianToReplicas(hessian, 'hessian-pairs', n, normalStream(2024, { purpose: 'pooling', index: 0 }))
+    expect(pooled.replicas.values.subarray(2)).toEqual(direct.values.subarray(2))
+    // A second set's replicas do not depend on how many deviates the first set used.
+    const onePair = memberValuesFromRows([[1, 1], [2, 1.5], [0, 0.5]])
+    const threePairs = memberValuesFromRows([[1, 1], [2, 1.5], [0, 0.5], [1.2, 1], [0.8, 1], [1, 1.1], [1, 0.9]])
+    const a = poolSets([{ matrix: onePair, kind: 'hessian-pairs' }, { matrix: hessian, kind: 'hessian-pairs' }], { replicasPerSet: 10, seed: 9 })
+    const b = poolSets([{ matrix: threePairs, kind: 'hessian-pairs' }, { matrix: hessian, kind: 'hessian-pairs' }], { replicasPerSet: 10, seed: 9 })
+    expect(a.replicas.values.subarray(2 * 11)).toEqual(b.replicas.values.subarray(2 * 11))
+    expect(a.replicas.values.subarray(2, 2 * 11)).not.toEqual(b.replicas.values.subarray(2, 2 * 11))
   })
 })
 
@@ -101,5 +113,9 @@ describe('pooling two sets (PDF4LHC recommendations, arXiv:1510.03865)', () => {
     { sets: [{ matrix: a, kind: 'hessian-pairs' as const }, { matrix: memberValuesFromRows([[1, 2], [1, 2], [1, 2]]), kind: 'hessian-pairs' as const }], message: /has 2 bins but set 0 has 1/ }
   ])('rejects: $message', ({ sets, message }) => {
     expect(() => poolSets(sets, { replicasPerSet: n, seed: 1 })).toThrow(message)
+  })
+
+  it.each([-1, 0.5, 2 ** 53])('rejects the seed %s, even when no set needs random numbers', (seed) => {
+    expect(() => poolSets([{ matrix: b, kind: 'replicas' }], { replicasPerSet: 10, seed })).toThrow(/seed must be a whole number/)
   })
 })

@@ -1,7 +1,7 @@
 import jStat from 'jstat'
 import { describe, expect, it } from 'vitest'
 import { memberValuesFromRows, type MemberValues } from '../../../../shared/physics/uncertainty/matrix'
-import { createNormalGenerator } from '../../../../shared/physics/uncertainty/prng'
+import { normalStream } from '../../../../shared/physics/random'
 import { replicaMeanSd, replicaMedianInterval, replicaMoments } from '../../../../shared/physics/uncertainty/replicas'
 import { expectClose } from '../close'
 
@@ -53,7 +53,7 @@ describe('median and central interval', () => {
 
 /** N Gaussian replicas of one bin with mean mu and sd sigma, from seed. */
 function gaussianReplicas(n: number, mu: number, sigma: number, seed: number): MemberValues {
-  const z = createNormalGenerator(seed).fill(n)
+  const z = normalStream(seed, { purpose: 'synthetic', index: 0 }).fill(n)
   const values = new Float64Array(n + 1)
   values[0] = mu
   for (let r = 0; r < n; r++) values[r + 1] = mu + sigma * z[r]!

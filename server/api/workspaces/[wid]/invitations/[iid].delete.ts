@@ -1,5 +1,7 @@
 import { and, eq, isNull } from 'drizzle-orm'
 import { tables as t } from '../../../../database/client'
+import { audit } from '../../../../domain/audit'
+import { fail } from '../../../../domain/errors'
 
 // Revoke a pending invitation (owners only).
 export default defineEventHandler(async (event) => {
@@ -8,7 +10,7 @@ export default defineEventHandler(async (event) => {
   const [row] = await useDB().update(t.invitations).set({ revokedAt: new Date() })
     .where(and(eq(t.invitations.id, id), eq(t.invitations.workspaceId, workspace.id), isNull(t.invitations.acceptedAt), isNull(t.invitations.revokedAt)))
     .returning()
-  if (!row) throw createError({ statusCode: 404, statusMessage: 'Invitation not found' })
-  await audit({ workspaceId: workspace.id, actorId: user.id, action: 'invitation.revoked', subjectType: 'invitation', subjectId: id, detail: { email: row.email } })
+  if (!row) fail(404, 'Invitation not found')
+  await audit(useDB(), { workspaceId: workspace.id, actorId: user.id, action: 'invitation.revoked', subjectType: 'invitation', subjectId: id, detail: { email: row.email } })
   return { ok: true }
 })

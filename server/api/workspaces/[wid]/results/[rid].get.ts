@@ -1,26 +1,24 @@
-import type { SpecSnapshot } from '../../../../utils/workflow/result-versions'
 import { RESULT_CAUTION } from '../../../../../shared/export/caution'
 import { prescriptionsFor } from '../../../../../shared/physics/uncertainty/bands'
+import { loadResultValues, reportingChoice, resultBands, resultSetHeader, resultTrail, userNames } from '../../../../domain/results/results'
+import { publicResult } from '../../../../domain/studies/studies'
 
 // One result version: state and progress (the live bar polls this), and once finished its bands
 // for ?prescription= and ?cl= (recomputed from the stored member values, no new job), the scale
 // variation apart from the PDF band, the review state and the audit trail.
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const resultId = uuidParam(event, 'rid', 'Result')
+  const { result, study } = await requireResult(event, 'viewer')
   const query = queryValid(event, bandsQuerySchema)
-  const { result, study } = await requireResult(workspaceId, resultId, user.id, 'viewer')
-  const header = await resultSetHeader(result)
+  const header = await resultSetHeader(useDB(), result)
   const choice = reportingChoice(result, header, query)
-  const snapshot = result.specSnapshot as SpecSnapshot
+  const snapshot = result.specSnapshot
   let bands = null
   let scale = null
   if (result.state === 'done') {
-    bands = await resultBands(result, header, choice.prescription, choice.clPercent)
-    scale = (await loadResultValues(result.id)).scale
+    bands = await resultBands(useDB(), result, header, choice.prescription, choice.clPercent)
+    scale = (await loadResultValues(useDB(), result.id)).scale
   }
-  const names = await userNames([result.requestedBy])
+  const names = await userNames(useDB(), [result.requestedBy])
   return {
     ...publicResult(result),
     study: { id: study.id, name: study.name, revision: study.revision },
@@ -31,7 +29,7 @@ export default defineEventHandler(async (event) => {
     reporting: { ...choice, available: prescriptionsFor(header.kind), setConfidenceLevelPercent: header.confidenceLevelPercent },
     bands,
     scaleVariation: scale,
-    trail: await resultTrail(result),
+    trail: await resultTrail(useDB(), result),
     caution: RESULT_CAUTION
   }
 })

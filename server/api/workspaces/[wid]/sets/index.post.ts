@@ -1,18 +1,21 @@
 import { eq } from 'drizzle-orm'
 import { tables as t } from '../../../../database/client'
 import { parseSetFile } from '../../../../../shared/physics/sets/parse'
+import { assertSetNameFree, publicSet, setColumns } from '../../../../domain/sets/library'
+import { insertErrorSet } from '../../../../domain/sets/store'
+import { audit } from '../../../../domain/audit'
+import { setFileRejection } from '../../../../domain/errors'
 
 // Upload a set file (analysts): multipart field `file`, optional `name`. The engine parses and
 // checks every member; a bad file answers 400 with data.issues and stores nothing.
 // Membership is checked before the body is read, so no one outside the workspace can make the
-// server buffer an upload.
+// server read an upload; the body is streamed with the size limit enforced while reading.
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  await requireMembership(workspaceId, user.id, 'analyst')
+  const { user, workspace } = await requireWorkspace(event, 'analyst')
+  const workspaceId = workspace.id
   const form = await readUploadForm(event, uploadLimits().setBytes)
   const file = formFile(form, 'file')
-  const bytes = new Uint8Array(await file.arrayBuffer())
+  const bytes = new Uint8Array(file.bytes.buffer, file.bytes.byteOffset, file.bytes.byteLength)
   let header
   try {
     header = parseSetFile(bytes).header
@@ -20,10 +23,10 @@ export default defineEventHandler(async (event) => {
     throw setFileRejection(err, file.name)
   }
   const name = formText(form, 'name') ?? header.name
-  await assertSetNameFree(workspaceId, name, header.version)
+  await assertSetNameFree(useDB(), workspaceId, name, header.version)
   const id = await useDB().transaction(async (tx) => {
     const setId = await insertErrorSet(tx, { workspaceId, name, fileName: file.name || `${name}.sheafset`, bytes, origin: 'upload', addedBy: user.id })
-    await audit({ workspaceId, actorId: user.id, action: 'set.uploaded', subjectType: 'error_set', subjectId: setId, detail: { name, version: header.version, bytes: bytes.byteLength } }, tx)
+    await audit(tx, { workspaceId, actorId: user.id, action: 'set.uploaded', subjectType: 'error_set', subjectId: setId, detail: { name, version: header.version, bytes: bytes.byteLength } })
     return setId
   })
   const [row] = await useDB().select(setColumns).from(t.errorSets).where(eq(t.errorSets.id, id))

@@ -1,12 +1,10 @@
 import { asc, desc, eq } from 'drizzle-orm'
 import { tables as t } from '../../../../database/client'
+import { publicResult, publicStudy } from '../../../../domain/studies/studies'
 
 // One study with every result version (newest first) and its measurements.
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const studyId = uuidParam(event, 'id', 'Study')
-  const { study } = await requireStudy(workspaceId, studyId, user.id, 'viewer')
+  const { study } = await requireStudy(event, 'viewer')
   const db = useDB()
   const [results, measurements] = await Promise.all([
     db.select().from(t.results).where(eq(t.results.studyId, study.id)).orderBy(desc(t.results.version), asc(t.results.createdAt)),

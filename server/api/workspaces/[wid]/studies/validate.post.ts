@@ -1,10 +1,10 @@
+import { validateStudy } from '../../../../domain/studies/studies'
 // Check a draft study without saving it (for the grid's messages): 200 { ok: true, spec } with
 // the spec as the engine completes it, or the same 400/422 with data.issues as a save.
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
+  const { workspace } = await requireWorkspace(event, 'viewer')
+  const workspaceId = workspace.id
   const body = await readValid(event, studyDraftSchema)
-  await requireMembership(workspaceId, user.id, 'viewer')
-  const { spec } = await validateStudy(workspaceId, body)
+  const { spec } = await validateStudy(useDB(), workspaceId, body)
   return { ok: true, spec }
 })

@@ -1,9 +1,9 @@
+import { publicResult } from '../../../../../domain/studies/studies'
+import { reviewStep } from '../../../../../domain/results/review'
 // Review step "approved" on a finished result version (owner role or higher).
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const resultId = uuidParam(event, 'rid', 'Result')
+  const { user, workspace, result } = await requireResult(event, 'owner')
+  const workspaceId = workspace.id
   const { comment } = await readValid(event, reviewCommentSchema)
-  const { result } = await requireResult(workspaceId, resultId, user.id, 'owner')
-  return publicResult(await reviewStep(result, workspaceId, user, 'approved', comment))
+  return publicResult(await reviewStep(useDB(), useSettings(), result, workspaceId, user, 'approved', comment))
 })

@@ -1,10 +1,11 @@
+import { publicResult } from '../../../../../domain/studies/studies'
+import { cancelRun } from '../../../../../domain/studies/runs'
+import { audit } from '../../../../../domain/audit'
 // Cancel a queued or running result (analysts).
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const resultId = uuidParam(event, 'rid', 'Result')
-  const { result } = await requireResult(workspaceId, resultId, user.id, 'analyst')
-  const row = await cancelRun(result)
-  await audit({ workspaceId, actorId: user.id, action: 'result.cancel-requested', subjectType: 'result', subjectId: result.id, detail: { state: row.state } })
+  const { user, workspace, result } = await requireResult(event, 'analyst')
+  const workspaceId = workspace.id
+  const row = await cancelRun(useDB(), useQueue, result)
+  await audit(useDB(), { workspaceId, actorId: user.id, action: 'result.cancel-requested', subjectType: 'result', subjectId: result.id, detail: { state: row.state } })
   return publicResult(row)
 })

@@ -1,5 +1,6 @@
 import { eq } from 'drizzle-orm'
 import { tables as t } from '../../../../../database/client'
+import { progressOf } from '../../../../../domain/studies/studies'
 
 const POLL_MS = 300
 const MAX_MS = 15 * 60_000
@@ -7,10 +8,8 @@ const MAX_MS = 15 * 60_000
 // Server-sent events for the live bar: a `progress` event (as GET …/progress) whenever the
 // state or the members done change, until the result has ended (then the stream closes).
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const resultId = uuidParam(event, 'rid', 'Result')
-  await requireResult(workspaceId, resultId, user.id, 'viewer')
+  const { result } = await requireResult(event, 'viewer')
+  const resultId = result.id
   const stream = createEventStream(event)
   const started = Date.now()
   let last = ''

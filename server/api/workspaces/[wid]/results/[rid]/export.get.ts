@@ -1,6 +1,7 @@
-import type { StudySpec } from '../../../../../../shared/physics/study/spec'
 import { bandsToCsv, bandsToJsonText, bandsToLatex, matrixToCsv } from '../../../../../../shared/export'
-import type { SpecSnapshot } from '../../../../../utils/workflow/result-versions'
+import { assertDone, loadResultValues, matrixRows, reportingChoice, resultBands, resultMatrices, resultSetHeader } from '../../../../../domain/results/results'
+import { exportObservable, exportProvenance, resultForExport } from '../../../../../domain/results/export'
+import { engineRejection } from '../../../../../domain/errors'
 
 const TYPES = {
   csv: ['text/csv; charset=utf-8', 'csv'],
@@ -13,25 +14,22 @@ const TYPES = {
 // Export a finished result: ?format=csv|json|latex|covariance|correlation, with ?prescription=
 // and ?cl=. Every file carries the provenance and the caution (shared/export formatters).
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const resultId = uuidParam(event, 'rid', 'Result')
+  const { user, result, study } = await requireResult(event, 'viewer')
   const query = queryValid(event, exportQuerySchema)
-  const { result, study } = await requireResult(workspaceId, resultId, user.id, 'viewer')
   assertDone(result)
-  const header = await resultSetHeader(result)
+  const header = await resultSetHeader(useDB(), result)
   const { prescription, clPercent } = reportingChoice(result, header, query)
-  const spec = (result.specSnapshot as SpecSnapshot).spec as StudySpec
-  const provenance = await exportProvenance(result, study, header, prescription, clPercent, user.name)
+  const spec = result.specSnapshot.spec
+  const provenance = await exportProvenance(useDB(), result, study, header, prescription, clPercent, user.name)
   let text: string
   try {
     if (query.format === 'covariance' || query.format === 'correlation') {
-      const m = await resultMatrices(result, header, clPercent)
+      const m = await resultMatrices(useDB(), result, header, clPercent)
       const values = matrixRows(query.format === 'covariance' ? m.covariance : m.correlation).map(row => row.map(v => v ?? Number.NaN))
       text = matrixToCsv({ provenance, observable: exportObservable(spec), kind: query.format, values })
     } else {
-      const bands = await resultBands(result, header, prescription, clPercent)
-      const { scale } = await loadResultValues(result.id)
+      const bands = await resultBands(useDB(), result, header, prescription, clPercent)
+      const { scale } = await loadResultValues(useDB(), result.id)
       const data = resultForExport(provenance, spec, prescription, bands, scale)
       text = query.format === 'csv' ? bandsToCsv(data) : query.format === 'json' ? bandsToJsonText(data) : bandsToLatex(data)
     }
@@ -39,7 +37,7 @@ export default defineEventHandler(async (event) => {
     throw engineRejection(err, 'The export cannot be written')
   }
   const [type, ext] = TYPES[query.format]
-  const base = `${study.name}-${(result.specSnapshot as SpecSnapshot).set.name}-v${result.version}`.replace(/[^\w.-]+/g, '_')
+  const base = `${study.name}-${result.specSnapshot.set.name}-v${result.version}`.replace(/[^\w.-]+/g, '_')
   setResponseHeaders(event, { 'content-type': type, 'content-disposition': `attachment; filename="${base}.${ext}"` })
   return text
 })

@@ -1,15 +1,14 @@
+import { assertDone, matrixRows, reportingChoice, resultMatrices, resultSetHeader } from '../../../../../domain/results/results'
+import { engineRejection } from '../../../../../domain/errors'
 // Bin-to-bin covariance (at ?cl=, default the study's) and correlation of a finished result.
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const resultId = uuidParam(event, 'rid', 'Result')
+  const { result } = await requireResult(event, 'viewer')
   const query = queryValid(event, bandsQuerySchema)
-  const { result } = await requireResult(workspaceId, resultId, user.id, 'viewer')
   assertDone(result)
-  const header = await resultSetHeader(result)
+  const header = await resultSetHeader(useDB(), result)
   const { clPercent } = reportingChoice(result, header, query)
   try {
-    const { covariance, correlation } = await resultMatrices(result, header, clPercent)
+    const { covariance, correlation } = await resultMatrices(useDB(), result, header, clPercent)
     return { bins: covariance.size, clPercent, covariance: matrixRows(covariance), correlation: matrixRows(correlation) }
   } catch (err) {
     throw engineRejection(err, 'The matrices cannot be computed')

@@ -1,8 +1,6 @@
+import { progressOf } from '../../../../../domain/studies/studies'
 // State and progress only (members done / total): cheap enough to poll every half second.
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const resultId = uuidParam(event, 'rid', 'Result')
-  const { result } = await requireResult(workspaceId, resultId, user.id, 'viewer')
+  const { result } = await requireResult(event, 'viewer')
   return progressOf(result)
 })

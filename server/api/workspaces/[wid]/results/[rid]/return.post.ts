@@ -1,9 +1,9 @@
+import { publicResult } from '../../../../../domain/studies/studies'
+import { reviewStep } from '../../../../../domain/results/review'
 // Review step "returned" on a finished result version (owner role or higher).
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const resultId = uuidParam(event, 'rid', 'Result')
+  const { user, workspace, result } = await requireResult(event, 'owner')
+  const workspaceId = workspace.id
   const { comment } = await readValid(event, returnCommentSchema)
-  const { result } = await requireResult(workspaceId, resultId, user.id, 'owner')
-  return publicResult(await reviewStep(result, workspaceId, user, 'returned', comment))
+  return publicResult(await reviewStep(useDB(), useSettings(), result, workspaceId, user, 'returned', comment))
 })

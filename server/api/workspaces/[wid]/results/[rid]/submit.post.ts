@@ -1,9 +1,9 @@
+import { publicResult } from '../../../../../domain/studies/studies'
+import { reviewStep } from '../../../../../domain/results/review'
 // Review step "submitted" on a finished result version (analyst role or higher).
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const resultId = uuidParam(event, 'rid', 'Result')
+  const { user, workspace, result } = await requireResult(event, 'analyst')
+  const workspaceId = workspace.id
   const { comment } = await readValid(event, reviewCommentSchema)
-  const { result } = await requireResult(workspaceId, resultId, user.id, 'analyst')
-  return publicResult(await reviewStep(result, workspaceId, user, 'submitted', comment))
+  return publicResult(await reviewStep(useDB(), useSettings(), result, workspaceId, user, 'submitted', comment))
 })

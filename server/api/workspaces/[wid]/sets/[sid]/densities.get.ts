@@ -1,15 +1,19 @@
 import { prescriptionsFor } from '../../../../../../shared/physics/uncertainty/bands'
+import { assertQ2Inside } from '../../../../../domain/sets/library'
+import { loadErrorSet } from '../../../../../domain/sets/store'
+import { densityBands, logSpacedX } from '../../../../../domain/sets/densities'
+import { setPrescription } from '../../../../../domain/results/results'
+import { engineRejection } from '../../../../../domain/errors'
+import { findSet } from '../../../../../domain/lookups'
 
 // x·f(x, Q²) of chosen flavours (?flavours=21,2,-2,uv …) at ?q2= with the set's band
 // (?prescription=, default by kind; ?cl=, default 68), on ?points= log-spaced x values, and with
 // ?ratioTo=<set id> the band divided by that set's central member.
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const setId = uuidParam(event, 'sid', 'Error set')
+  const { workspace, set: row } = await requireSet(event, 'viewer')
+  const workspaceId = workspace.id
   const query = queryValid(event, densitiesQuerySchema)
-  const { set: row } = await requireSet(workspaceId, setId, user.id, 'viewer')
-  const reference = query.ratioTo ? (await requireSet(workspaceId, query.ratioTo, user.id, 'viewer')).set : null
+  const reference = query.ratioTo ? await findSet(useDB(), workspaceId, query.ratioTo) : null
   assertQ2Inside(query.q2, Math.max(row.q2Min, reference?.q2Min ?? 0), Math.min(row.q2Max, reference?.q2Max ?? Infinity))
   const prescription = setPrescription(row.kind, query.prescription)
   const clPercent = query.cl ?? 68

@@ -3,10 +3,7 @@ import { tables as t } from '../../../../../database/client'
 
 // Download the set file, byte for byte as stored.
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const setId = uuidParam(event, 'sid', 'Error set')
-  const { set } = await requireSet(workspaceId, setId, user.id, 'viewer')
+  const { set } = await requireSet(event, 'viewer')
   const [row] = await useDB().select({ content: t.errorSets.content }).from(t.errorSets).where(eq(t.errorSets.id, set.id))
   setResponseHeaders(event, {
     'content-type': 'application/octet-stream',

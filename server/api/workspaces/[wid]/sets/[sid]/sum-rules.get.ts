@@ -1,10 +1,12 @@
+import { assertQ2Inside } from '../../../../../domain/sets/library'
+import { loadErrorSet } from '../../../../../domain/sets/store'
+import { sumRuleBands } from '../../../../../domain/sets/densities'
+import { setPrescription } from '../../../../../domain/results/results'
+import { engineRejection } from '../../../../../domain/errors'
 // The momentum and valence sum-rule integrals of every member at ?q2=, with the set's band.
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const setId = uuidParam(event, 'sid', 'Error set')
+  const { set: row } = await requireSet(event, 'viewer')
   const query = queryValid(event, sumRulesQuerySchema)
-  const { set: row } = await requireSet(workspaceId, setId, user.id, 'viewer')
   assertQ2Inside(query.q2, row.q2Min, row.q2Max)
   const prescription = setPrescription(row.kind, query.prescription)
   const clPercent = query.cl ?? 68

@@ -1,13 +1,12 @@
+import { combineSets, comparedSets } from '../../../../../domain/measurements/comparison'
+import { engineRejection } from '../../../../../domain/errors'
 // Combine the newest finished results of several sets of one study (?setIds=a,b; default all):
 // each set's band, their envelope, and the Monte-Carlo pooled combination (?replicasPerSet=,
 // ?seed=), all at ?cl= (default the study's CL).
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const studyId = uuidParam(event, 'id', 'Study')
+  const { study } = await requireStudy(event, 'viewer')
   const query = queryValid(event, comparisonQuerySchema)
-  const { study } = await requireStudy(workspaceId, studyId, user.id, 'viewer')
-  const sets = await comparedSets(study, query.setIds)
+  const sets = await comparedSets(useDB(), study, query.setIds)
   try {
     return combineSets(sets, study, query.cl ?? study.clPercent, query.replicasPerSet, query.seed)
   } catch (err) {

@@ -1,12 +1,10 @@
 import { desc, eq } from 'drizzle-orm'
 import { tables as t } from '../../../../../../database/client'
+import { publicMeasurement } from '../../../../../../domain/measurements/measurements'
 
 // The measurements uploaded for a study.
 export default defineEventHandler(async (event) => {
-  const user = requireUser(event)
-  const workspaceId = uuidParam(event, 'wid', 'Workspace')
-  const studyId = uuidParam(event, 'id', 'Study')
-  const { study } = await requireStudy(workspaceId, studyId, user.id, 'viewer')
+  const { study } = await requireStudy(event, 'viewer')
   const rows = await useDB().select().from(t.measurements).where(eq(t.measurements.studyId, study.id)).orderBy(desc(t.measurements.createdAt))
   return { measurements: rows.map(publicMeasurement) }
 })

@@ -1,0 +1,140 @@
+/**
+ * `sheaf compute <study.json> <set-file>... [--second <set-file>] [--outside error|freeze]
+ * [--format json|csv] [--table bands|values]`: every member's value in every bin of a study,
+ * and each set's band with its default prescription at 68% CL.
+ */
+import { computeBands, prescriptionsFor } from '../../../shared/physics/uncertainty'
+import { buildPlan, evaluatePlan, parseStudySpec, resultUnit, type StudySpec } from '../../../shared/physics/study'
+import type { ErrorSet } from '../../../shared/physics/types'
+import { outputFormat, parseVerbArgs, stringOption, type VerbSpec } from '../args'
+import { BAND_CSV_HEADER, bandCsvRows, bandReport, type BandReport } from '../band-report'
+import { BadInputError, UsageError } from '../errors'
+import { readJson, type CliIo } from '../io'
+import { toCsv, toJson } from '../output'
+import { loadSet, setAlphas } from '../set-file'
+
+export const computeVerb: VerbSpec = {
+  name: 'compute',
+  summary: 'per-member values and bands of a study for one or more set files',
+  help: `Usage: sheaf compute <study.json> <set-file>... [options]
+
+Evaluates the study (kernel, options, bins; see the README's study format) with every member of
+each set, through the precomputed plan, and prints per set: its name, kind, the CL of its
+members, the members × bins values (member 0 central; unit in study.unit) and the band with the
+set's default prescription at 68% CL (α_s members, when the set has them, added in quadrature;
+null for a set of the central member alone).
+The output is a values document that 'sheaf bands' reads.
+
+Options:
+  --second <set-file>      second set: beam 2 of a pA collision, or the nuclear set of a
+                           nuclear ratio (members paired index by index with each main set's)
+  --outside error|freeze   bins reaching outside a set's grid: refuse (default) or evaluate
+                           at the grid edge and list them under outsideBins
+  --format json|csv        json (default) or CSV
+  --table bands|values     with --format csv: the bands (default; one line per set and bin) or
+                           the values (one line per set, member and bin)
+Bins are numbered from 1 (as in the engine's messages), members from 0 (the central member).
+  -h, --help               this text`,
+  options: {
+    second: { type: 'string' },
+    outside: { type: 'string' },
+    format: { type: 'string' },
+    table: { type: 'string' }
+  },
+  positionals: { min: 2, max: Infinity, what: 'files (a study, then one or more set files)' }
+}
+
+/** One set's result in compute's output. */
+export interface ComputedSet {
+  set: string
+  file: string
+  kind: ErrorSet['header']['kind']
+  /** CL of the set's members, percent. */
+  clPercent: number
+  alphasMembers?: [number, number]
+  members: number
+  bins: number
+  /** values[member][bin], in the study's unit. */
+  values: number[][]
+  /** The band, or null for a set of the central member alone. */
+  bands: BandReport | null
+  /** Bins (numbered from 1) evaluated at the grid edge (--outside freeze), with the reason. */
+  outsideBins?: Array<{ bin: number, message: string }>
+}
+
+function loadStudy(io: CliIo, file: string): StudySpec {
+  const doc = readJson(io, file)
+  try {
+    return parseStudySpec(doc)
+  } catch (e) {
+    throw new BadInputError(`${file}: ${(e as Error).message}`)
+  }
+}
+
+function computeSet(spec: StudySpec, file: string, set: ErrorSet, outside: 'error' | 'freeze', second?: { file: string, set: ErrorSet }): ComputedSet {
+  const { header } = set
+  let values: Float64Array
+  let outsideBins: ComputedSet['outsideBins']
+  try {
+    const plan = buildPlan(spec, set, { outside, second: second?.set, alphas: setAlphas(header) })
+    values = evaluatePlan(plan, set.members, second?.set.members)
+    if (plan.outsideBins.length > 0) outsideBins = plan.outsideBins.map(i => ({ bin: i.bin, message: i.message }))
+  } catch (e) {
+    const hint = outside === 'error' && /outside|below|above/.test((e as Error).message) ? ' (--outside freeze evaluates such bins at the grid edge)' : ''
+    throw new BadInputError(`${file}${second ? ` with ${second.file}` : ''}: ${(e as Error).message}${hint}`)
+  }
+  const bins = spec.bins.length
+  const members = values.length / bins
+  const matrix = { members, bins, values }
+  const alphasMembers = header.alphasMembers
+  // A set of the central member alone (e.g. written by 'sheaf evolve --out') has no band.
+  let bands = null
+  if (members > 1 + (alphasMembers ? 2 : 0)) {
+    try {
+      bands = bandReport(computeBands(matrix, { kind: header.kind, prescription: prescriptionsFor(header.kind)[0]!, clFrom: header.confidenceLevelPercent, clTo: 68, alphasMembers }))
+    } catch (e) {
+      throw new BadInputError(`${file}: ${(e as Error).message}`)
+    }
+  }
+  const rows: number[][] = []
+  for (let m = 0; m < members; m++) rows.push(Array.from(values.subarray(m * bins, (m + 1) * bins)))
+  const out: ComputedSet = { set: header.name, file, kind: header.kind, clPercent: header.confidenceLevelPercent, members, bins, values: rows, bands }
+  if (alphasMembers) out.alphasMembers = alphasMembers
+  if (outsideBins) out.outsideBins = outsideBins
+  return out
+}
+
+/** Runs `compute`; returns the exit code. */
+export function runCompute(argv: readonly string[], io: CliIo): number {
+  const args = parseVerbArgs(computeVerb, argv)
+  if (args.help) { io.stdout(`${computeVerb.help}\n`); return 0 }
+  const format = outputFormat('compute', args)
+  const outside = stringOption(args, 'outside') ?? 'error'
+  if (outside !== 'error' && outside !== 'freeze') throw new UsageError(`compute: --outside must be error or freeze, got '${outside}'.`)
+  const table = stringOption(args, 'table') ?? 'bands'
+  if (table !== 'bands' && table !== 'values') throw new UsageError(`compute: --table must be bands or values, got '${table}'.`)
+
+  const [studyFile, ...setFiles] = args.positionals as [string, ...string[]]
+  const spec = loadStudy(io, studyFile)
+  const secondFile = stringOption(args, 'second')
+  const second = secondFile === undefined ? undefined : { file: secondFile, set: loadSet(io, secondFile) }
+  const sets = setFiles.map(file => computeSet(spec, file, loadSet(io, file), outside, second))
+
+  if (format === 'csv') {
+    // Sets are named by their header; when two share a name, their file tells them apart.
+    const names = sets.map(s => s.set)
+    const label = (s: ComputedSet) => (names.filter(n => n === s.set).length > 1 ? `${s.set} [${s.file}]` : s.set)
+    if (table === 'bands') io.stdout(toCsv(BAND_CSV_HEADER, sets.flatMap(s => (s.bands ? bandCsvRows(label(s), s.bands) : []))))
+    else io.stdout(toCsv(['set', 'member', 'bin', 'value'], sets.flatMap(s => s.values.flatMap((row, m) => row.map((v, b) => [label(s), m, b + 1, v])))))
+    return 0
+  }
+  const study = {
+    title: spec.title,
+    kernel: spec.kernel,
+    unit: resultUnit(spec),
+    quadratureOrder: spec.quadratureOrder,
+    bins: spec.bins.map((row, b) => ({ bin: b + 1, ...row }))
+  }
+  io.stdout(toJson({ study, sets }))
+  return 0
+}

@@ -1,0 +1,2 @@
+DROP TABLE "jobs" CASCADE;--> statement-breakpoint
+DROP TYPE "public"."job_state";

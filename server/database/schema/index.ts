@@ -1,0 +1,4 @@
+// The database schema: one module per area, no import circle (columns ← accounts ← workflow).
+export * from './accounts'
+export * from './workflow'
+export type * from './json'

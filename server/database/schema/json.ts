@@ -1,0 +1,38 @@
+// The shapes stored in the JSON columns, typed once here so no query needs a cast. Types only;
+// they come from shared/ (the engine and the parsers), never from the server.
+import type { MeasurementData } from '../../../shared/measurements/csv'
+import type { BandJson } from '../../../shared/physics/uncertainty/band'
+import type { StudySpec } from '../../../shared/physics/study/spec'
+import type { Prescription } from '../../../shared/physics/uncertainty/bands'
+
+/** The snapshot a result keeps of what it ran: the spec, reporting choices and the sets. */
+export interface SpecSnapshot {
+  studyName: string
+  spec: StudySpec
+  prescription: string
+  clPercent: number
+  set: { id: string, name: string, version: string, family: string, kind: string, memberCount: number, confidenceLevelPercent: number }
+  second: { id: string, name: string, version: string, kind: string } | null
+}
+
+/** The engine's scale variation (study/scale.ts) as JSON: central member at μ_F = κ μ. */
+export interface ScaleVariationJson {
+  kappas: [number, number, number]
+  values: number[][]
+  nominal: number[]
+  up: number[]
+  down: number[]
+}
+
+/** One prescription's bands of a result at one CL, as cached in result_bands. */
+export interface StoredBands extends BandJson {
+  prescription: Prescription
+  clPercent: number
+  /** The PDF part alone (equal to the total without α_s members). */
+  pdf: BandJson
+  /** The α_s part per bin, or null when the set has no α_s members. */
+  alphas: number[] | null
+}
+
+/** A measurement as stored: the parsed points and, if given, the correlation and what it applies to. */
+export type MeasurementJson = MeasurementData

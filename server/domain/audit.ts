@@ -1,0 +1,8 @@
+import type { DB, Tx } from '../database/client'
+import { tables as t } from '../database/client'
+import type { NewAuditEvent } from '../database/schema'
+
+/** Append one audit event; pass the transaction to keep it atomic with the change it records. */
+export async function audit(db: DB | Tx, event: Omit<NewAuditEvent, 'id' | 'createdAt'>) {
+  await db.insert(t.auditEvents).values(event)
+}

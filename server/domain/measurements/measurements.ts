@@ -1,0 +1,38 @@
+// A measurement to compare a study with: the upload checked and parsed (shared/measurements
+// parses the files), what the API shows of it.
+import type { Measurement } from '../../database/schema'
+import { parseCorrelationMatrix, parseMeasurementPoints, type LocatedIssue, type MeasurementData } from '../../../shared/measurements/csv'
+import { fail } from '../errors'
+
+/** What the API shows of a measurement in lists. */
+export const publicMeasurement = (m: Measurement) => ({
+  id: m.id, studyId: m.studyId, name: m.name, pointCount: m.pointCount, uploadedBy: m.uploadedBy, createdAt: m.createdAt
+})
+
+/** A measurement as sent: the points file's text and, optionally, a correlation matrix and what it applies to. */
+export interface MeasurementUpload { name: string, csv: string, correlation?: string | number[][], correlationOf: 'syst' | 'total' }
+
+function rejected(issues: LocatedIssue[]): never {
+  const first = issues[0]!
+  const where = [first.file === 'correlation' ? 'correlation matrix' : 'points', first.line && `line ${first.line}`, first.column && `column ${first.column}`].filter(Boolean).join(', ')
+  fail(400, `The measurement has ${issues.length} problem${issues.length > 1 ? 's' : ''}: ${where}: ${first.message}`, { issues })
+}
+
+/** The measurement to store, or 400 with located issues; 422 when the points do not match `bins`. */
+export function parseMeasurement(u: MeasurementUpload, bins: number): MeasurementData {
+  const points = parseMeasurementPoints(u.csv)
+  if (points.issues.length) rejected(points.issues)
+  const n = points.data.values.length
+  let correlation: number[][] | null = null
+  if (u.correlation !== undefined) {
+    const text = typeof u.correlation === 'string' ? u.correlation : JSON.stringify(u.correlation)
+    const parsed = parseCorrelationMatrix(text, n)
+    if (parsed.issues.length) rejected(parsed.issues)
+    correlation = parsed.matrix
+    if (u.correlationOf === 'syst' && !points.data.syst) rejected([{ message: 'The correlation matrix applies to the syst column, but there is none', file: 'points', line: 1 }])
+  }
+  if (n !== bins) {
+    fail(422, `The study has ${bins} bins but the measurement has ${n} points: give one point per bin, in bin order`, { issues: [{ message: `${n} points for ${bins} bins`, file: 'points' }] })
+  }
+  return { ...points.data, correlation, correlationOf: u.correlationOf }
+}

@@ -1,0 +1,102 @@
+import { and, desc, eq } from 'drizzle-orm'
+import type { DB } from '../../database/client'
+import { tables as t } from '../../database/client'
+import type { Result, ScaleVariationJson, StoredBands, Study } from '../../database/schema'
+import type { BinColumn as GridColumn, BinRow as GridRow } from '../../../shared/bins/types'
+import type { ExportObservable, ExportProvenance, LabelledBand, ResultForExport } from '../../../shared/export/types'
+import { bandToJson, makeBands } from '../../../shared/physics/uncertainty/band'
+import * as C from '../../../shared/physics/constants'
+import { kernelDefinition } from '../../../shared/physics/kernels/registry'
+import { BIN_COLUMNS, resultUnit, type StudySpec } from '../../../shared/physics/study/spec'
+import type { SetHeader } from '../../../shared/physics/types'
+import type { Prescription } from '../../../shared/physics/uncertainty/bands'
+import { PRESCRIPTION_LABELS } from '../../../shared/utils/prescriptions'
+import { userNames } from './results'
+
+const COLUMN_LABELS: Record<string, { label: string, unit?: string }> = {
+  x: { label: 'x' }, xMin: { label: 'x min' }, xMax: { label: 'x max' },
+  q2: { label: 'Q²', unit: 'GeV²' }, q2Min: { label: 'Q² min', unit: 'GeV²' }, q2Max: { label: 'Q² max', unit: 'GeV²' },
+  y: { label: 'y' }, yMin: { label: 'y min' }, yMax: { label: 'y max' },
+  m: { label: 'M', unit: 'GeV' }, mMin: { label: 'M min', unit: 'GeV' }, mMax: { label: 'M max', unit: 'GeV' }
+}
+
+/** Kinematic columns used by any bin of the spec, in the engine's column order (label first if any). */
+export function exportColumns(spec: StudySpec): GridColumn[] {
+  const used = BIN_COLUMNS.filter(c => spec.bins.some(b => b[c] !== undefined))
+  const columns: GridColumn[] = used.map(key => ({ key, label: COLUMN_LABELS[key]!.label, unit: COLUMN_LABELS[key]!.unit, kind: 'number' }))
+  if (spec.bins.some(b => b.label)) columns.unshift({ key: 'label', label: 'bin', kind: 'text' })
+  return columns
+}
+
+/** Options as flat "key=value" constants (nested objects get dotted keys), with the physical constants. */
+function kernelConstants(spec: StudySpec): Record<string, number | string | boolean> {
+  const out: Record<string, number | string | boolean> = {}
+  const walk = (prefix: string, v: unknown) => {
+    if (v !== null && typeof v === 'object' && !Array.isArray(v)) for (const [k, w] of Object.entries(v)) walk(prefix ? `${prefix}.${k}` : k, w)
+    else if (typeof v === 'number' || typeof v === 'string' || typeof v === 'boolean') out[prefix] = v
+    else if (v !== undefined) out[prefix] = JSON.stringify(v)
+  }
+  walk('', spec.options)
+  Object.assign(out, {
+    quadratureOrder: spec.quadratureOrder, fullRangeOrder: spec.fullRangeOrder, scaleFactor: spec.scaleFactor, rangeMode: spec.rangeMode,
+    // The physical constants the kernels use, as the engine defines them (shared/physics/constants.ts, sources there).
+    alphaEm: C.ALPHA_EM, gFermiGeVm2: C.GF_GEV2, mWGeV: C.MW_GEV, mZGeV: C.MZ_GEV, mHGeV: C.MH_GEV,
+    sin2ThetaWEff: C.SIN2_THETA_W_EFF, hbarc2PbGeV2: C.HBARC2_PB_GEV2
+  })
+  return out
+}
+
+export function exportObservable(spec: StudySpec): ExportObservable {
+  const def = kernelDefinition(spec.kernel)
+  const name = def.composite ? def.title : def.quantity
+  const unit = resultUnit(spec)
+  return { name, ...(unit !== '1' ? { unit } : {}) }
+}
+
+/** The provenance block of every export of result `r`. */
+export async function exportProvenance(db: DB, r: Result, study: Study, header: SetHeader, prescription: Prescription, clPercent: number, exportedBy: string): Promise<ExportProvenance> {
+  const snap = r.specSnapshot
+  const spec = snap.spec
+  const def = kernelDefinition(spec.kernel)
+  const names = await userNames(db, [r.requestedBy])
+  const [approval] = await db.select({ at: t.resultReviews.createdAt, by: t.users.name }).from(t.resultReviews)
+    .leftJoin(t.users, eq(t.users.id, t.resultReviews.actorId))
+    .where(and(eq(t.resultReviews.resultId, r.id), eq(t.resultReviews.action, 'approved')))
+    .orderBy(desc(t.resultReviews.createdAt)).limit(1)
+  return {
+    study: { id: study.id, name: study.name },
+    set: { name: snap.set.name, version: snap.set.version, kind: snap.set.kind, family: snap.set.family },
+    prescription: PRESCRIPTION_LABELS[prescription],
+    confidenceLevelPercent: clPercent,
+    setConfidenceLevelPercent: header.confidenceLevelPercent,
+    kernel: { id: spec.kernel, label: def.title, constants: kernelConstants(spec) },
+    engineVersion: r.engineVersion ?? 'unknown',
+    ranBy: (r.requestedBy && names.get(r.requestedBy)) || 'unknown',
+    ranAt: r.finishedAt ?? r.createdAt,
+    resultVersion: r.version,
+    approval: r.reviewState === 'approved' && approval
+      ? { state: 'approved', by: approval.by ?? undefined, at: approval.at }
+      : { state: r.reviewState },
+    exportedBy,
+    exportedAt: new Date()
+  }
+}
+
+/** A result version as the shared/export formatters take it: the PDF band, then the scale band apart. */
+export function resultForExport(
+  provenance: ExportProvenance, spec: StudySpec, prescription: Prescription, bands: StoredBands,
+  scale: ScaleVariationJson | null
+): ResultForExport {
+  const exportBands: LabelledBand[] = [{ id: prescription, label: `PDF, ${PRESCRIPTION_LABELS[prescription]}`, band: bands }]
+  if (scale) {
+    const [lo, mid, hi] = scale.kappas
+    exportBands.push({ id: 'scale', label: `factorisation-scale variation, μ_F/μ = ${lo}, ${mid}, ${hi} (not a PDF uncertainty)`, band: bandToJson(makeBands(scale.nominal, scale.up, scale.down)) })
+  }
+  return {
+    provenance,
+    observable: exportObservable(spec),
+    binColumns: exportColumns(spec),
+    bins: spec.bins.map(b => ({ ...b }) as GridRow),
+    bands: exportBands
+  }
+}

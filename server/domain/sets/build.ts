@@ -1,0 +1,71 @@
+// Building an error set from a parametrised fit (a set_builds row), in one function used by the
+// worker and by tests: the engine evolves every member with progress into the row and the
+// caller's callback, stopping at the cancel flag; the set file is stored as a new library set
+// together with the row's `done` state in one transaction. Idempotent: a finished build is not
+// rebuilt; an unfinished one starts over. A RangeError (bad fit: no covariance, a divergent
+// member) fails at once without retries.
+import { eq } from 'drizzle-orm'
+import type { DB } from '../../database/client'
+import { tables as t } from '../../database/client'
+import type { SetBuild } from '../../database/schema'
+import { buildErrorSet } from '../../../shared/physics/evolution/build-set'
+import { compileInput } from '../../../shared/physics/input/model'
+import { parseInputDocument } from '../../../shared/physics/input/parse'
+import { SET_FILE_EXTENSION } from '../../../shared/physics/sets/format'
+import { writeSetFile } from '../../../shared/physics/sets/write'
+import { ENGINE_VERSION } from '../../../shared/physics/version'
+import type { JobProgress } from '../../../shared/queue/workflow'
+import { JobCancelled, ONLY_ATTEMPT, runQueuedWork, type Attempt } from '../jobs/lifecycle'
+import { notifyBuildEnded } from '../mail/job-ended'
+import type { Settings } from '../settings'
+import { insertErrorSet } from './store'
+
+export interface RunOptions {
+  onProgress?: (p: JobProgress) => unknown
+  attempt?: Attempt
+  /** Mail the requester at the end (settings for the mailer); no mail without. */
+  mail?: Settings
+}
+
+/** Runs the set build `buildId` to its end (see the file comment). */
+export function runSetBuild(db: DB, buildId: string, o: RunOptions = {}) {
+  return runQueuedWork<SetBuild, { setId: string }>(db, o.attempt ?? ONLY_ATTEMPT, {
+    table: t.setBuilds, id: buildId, resetProgress: { progressDone: 0 },
+    work: async row => ({ setId: await build(db, row, o.onProgress) }),
+    ended: o.mail ? () => notifyBuildEnded(db, o.mail!, buildId) : undefined
+  })
+}
+
+async function build(db: DB, b: SetBuild, onProgress: RunOptions['onProgress']): Promise<string> {
+  const document = parseInputDocument(b.request.input, 'input')
+  const baseline = b.request.baseline !== undefined ? parseInputDocument(b.request.baseline, 'baseline') : undefined
+  const model = compileInput(document, baseline)
+  const [requester] = b.requestedBy
+    ? await db.select({ name: t.users.name }).from(t.users).where(eq(t.users.id, b.requestedBy))
+    : []
+  const set = await buildErrorSet(model, undefined, {
+    provenance: `built by ${requester?.name ?? 'unknown'} with ${ENGINE_VERSION} (set build ${b.id})`,
+    onProgress: async (done, total) => {
+      const [row] = await db.update(t.setBuilds).set({ progressDone: done, progressTotal: total })
+        .where(eq(t.setBuilds.id, b.id)).returning({ cancel: t.setBuilds.cancelRequested })
+      await onProgress?.({ done, total })
+      if (!row || row.cancel) throw new JobCancelled()
+    }
+  })
+  const bytes = writeSetFile(set)
+  return db.transaction(async (tx) => {
+    const [current] = await tx.select({ cancel: t.setBuilds.cancelRequested }).from(t.setBuilds).where(eq(t.setBuilds.id, b.id)).for('update')
+    if (!current || current.cancel) throw new JobCancelled()
+    const setId = await insertErrorSet(tx, {
+      workspaceId: b.workspaceId, name: b.name, fileName: `${b.name.replace(/[^\w.-]+/g, '_')}${SET_FILE_EXTENSION}`,
+      bytes, origin: 'build', addedBy: b.requestedBy
+    })
+    await tx.update(t.setBuilds).set({ state: 'done', setId, progressDone: set.members.length, progressTotal: set.members.length, finishedAt: new Date() })
+      .where(eq(t.setBuilds.id, b.id))
+    await tx.insert(t.auditEvents).values({
+      workspaceId: b.workspaceId, actorId: b.requestedBy, action: 'set.built', subjectType: 'error_set', subjectId: setId,
+      detail: { buildId: b.id, members: set.members.length }
+    })
+    return setId
+  })
+}

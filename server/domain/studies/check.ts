@@ -1,0 +1,93 @@
+// Checks of a study against the engine (structure, kernel, bins) and against the sets it runs
+// on (kinematic reach). No Nitro imports: the worker re-checks a snapshot before running.
+import { makeAlphas } from '../../../shared/physics/alphas'
+import { MZ_GEV } from '../../../shared/physics/constants'
+import { ExpressionError } from '../../../shared/physics/kernels/expression'
+import type { KernelContext } from '../../../shared/physics/kernels/registry'
+import { buildUserKernel, type UserKernelOptions } from '../../../shared/physics/kernels/user-kernel'
+import { checkReach, type StudyAxes } from '../../../shared/physics/study/expand'
+import { checkStudySpec, type StudyIssue, type StudySpec } from '../../../shared/physics/study/spec'
+import type { SetHeader } from '../../../shared/physics/types'
+
+/** The part of an error_sets row the checks need. */
+export interface SetForCheck {
+  id: string
+  name: string
+  version: string
+  header: SetHeader
+  axes: { x: number[], q2: number[], flavours: number[] }
+}
+
+/** A reach problem of one bin for one set: 1-based bin, the set, and the located message. */
+export interface ReachProblem {
+  setId: string
+  setName: string
+  bin: number
+  kind: 'kinematics' | 'grid'
+  message: string
+}
+
+export const axesOf = (s: SetForCheck): StudyAxes['main'] => ({
+  x: Float64Array.from(s.axes.x), q2: Float64Array.from(s.axes.q2), flavours: s.axes.flavours
+})
+
+/**
+ * Which of two sets is the engine's main set and which its second (beam 2 of a p–A collision,
+ * the nuclear set of a nuclear ratio): the one with a nucleus target is the second. `varying` is
+ * the set whose members a result evaluates, `partner` the study's second set, held at its central
+ * member. Without a partner the varying set is the main one.
+ */
+export function pairRoles<T extends { header: SetHeader }>(varying: T, partner: T | null | undefined) {
+  if (!partner) return { main: varying, second: null, varyingRole: 'main' as const }
+  const nuclear = (s: T) => s.header.target?.type === 'nucleus'
+  return nuclear(varying) && !nuclear(partner)
+    ? { main: partner, second: varying, varyingRole: 'second' as const }
+    : { main: varying, second: partner, varyingRole: 'main' as const }
+}
+
+/** What the kernels need from the set beyond its grid: the one-loop α_s of its header. */
+export function kernelContextOf(header: SetHeader): KernelContext {
+  const alphas = makeAlphas({ value: header.alphasMzCentral, scaleGeV2: MZ_GEV * MZ_GEV }, header.scheme)
+  return { alphas }
+}
+
+/**
+ * The engine's structural check: the validated spec, or the issues located by bin and column.
+ * A user kernel is also compiled here, so a broken expression is one issue at
+ * options.expression whatever sets the study runs on (the reach check would repeat it per set).
+ */
+export function checkSpec(input: unknown): { spec: StudySpec, issues: [] } | { spec: null, issues: StudyIssue[] } {
+  const r = checkStudySpec(input)
+  if (!r.ok) return { spec: null, issues: r.issues }
+  const kernelIssue = r.spec.kernel === 'user' ? userKernelIssue(r.spec.options as UserKernelOptions) : null
+  return kernelIssue ? { spec: null, issues: [kernelIssue] } : { spec: r.spec, issues: [] }
+}
+
+/** Why the user kernel with these (schema-checked) options does not compile, or null. */
+function userKernelIssue(options: UserKernelOptions): StudyIssue | null {
+  try {
+    buildUserKernel(options)
+    return null
+  } catch (err) {
+    if (err instanceof ExpressionError) return { column: 'options.expression', path: ['options', 'expression'], message: err.message }
+    if (err instanceof RangeError) return { column: 'options', path: ['options'], message: err.message }
+    throw err
+  }
+}
+
+/**
+ * Every bin that `set` (with `second` for two-set kernels) cannot reach. A kernel needing α_s that
+ * cannot get it from the header reports one problem rather than throwing.
+ */
+export function reachProblems(spec: StudySpec, set: SetForCheck, second?: SetForCheck | null): ReachProblem[] {
+  try {
+    const roles = pairRoles(set, second)
+    const axes: StudyAxes = { main: axesOf(roles.main), ...(roles.second ? { second: axesOf(roles.second) } : {}) }
+    return checkReach(spec, axes, kernelContextOf(roles.main.header)).map(i => ({
+      setId: set.id, setName: `${set.name} ${set.version}`, bin: i.bin, kind: i.kind, message: `${set.name} ${set.version}: ${i.message}`
+    }))
+  } catch (err) {
+    if (!(err instanceof RangeError)) throw err
+    return [{ setId: set.id, setName: `${set.name} ${set.version}`, bin: 0, kind: 'kinematics', message: `${set.name} ${set.version}: ${err.message}` }]
+  }
+}

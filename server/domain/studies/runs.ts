@@ -1,0 +1,48 @@
+import { and, eq, inArray } from 'drizzle-orm'
+import type { DB } from '../../database/client'
+import { tables as t } from '../../database/client'
+import type { Result, Study } from '../../database/schema'
+import { RUN_STUDY_QUEUE, type RunStudyPayload } from '../../../shared/queue/workflow'
+import { fail } from '../errors'
+import { cancelRow, enqueueRow, type QueueSource } from '../jobs/queue'
+import { insertResultVersions } from '../results/versions'
+import { validateStudy } from './studies'
+
+/**
+ * Makes one new result version per set of `setIds` (all in the study) and queues a job for each,
+ * with the result id as the BullMQ job id. 400 for a set the study does not have, 409 when one
+ * is already queued or running, 422 when a bin is out of a set's reach, 503 without a queue.
+ */
+export async function startRuns(db: DB, queues: QueueSource, study: Study, setIds: readonly string[], userId: string): Promise<Result[]> {
+  if (setIds.length === 0) {
+    fail(400, 'Add at least one error set to the study before running it', { issues: [{ message: 'The study has no error sets', path: ['setIds'] }] })
+  }
+  const foreign = setIds.filter(id => !study.setIds.includes(id))
+  if (foreign.length) {
+    fail(400, 'Run only sets the study has', { issues: foreign.map(id => ({ message: `Set ${id} is not one of this study's sets`, path: ['setIds'] })) })
+  }
+  const { spec, sets, second } = await validateStudy(db, study.workspaceId, { spec: study.spec, setIds: [...setIds], secondSetId: study.secondSetId })
+  const active = await db.select({ setId: t.results.setId, version: t.results.version }).from(t.results)
+    .where(and(eq(t.results.studyId, study.id), inArray(t.results.setId, [...setIds]), inArray(t.results.state, ['queued', 'running'])))
+  if (active.length) {
+    const names = active.map(a => `${sets.find(s => s.id === a.setId)?.name ?? a.setId} (version ${a.version})`)
+    fail(409, `Already queued or running: ${names.join(', ')}; wait for it or cancel it first`)
+  }
+  const created = await insertResultVersions(db, { study, spec, sets, second, userId })
+  for (const r of created) await enqueueRun(db, queues, r)
+  return created
+}
+
+/** Puts a result on the run-study queue (503 without a queue). */
+async function enqueueRun(db: DB, queues: QueueSource, r: Result) {
+  const payload: RunStudyPayload = { resultId: r.id }
+  await enqueueRow(db, queues, t.results, RUN_STUDY_QUEUE, r.id, payload)
+  r.jobId = r.id
+}
+
+/** Cancels a queued or running result (cancelRow); the row as it is now. */
+export async function cancelRun(db: DB, queues: QueueSource, r: Result) {
+  await cancelRow(db, queues, t.results, RUN_STUDY_QUEUE, r, 'result')
+  const [row] = await db.select().from(t.results).where(eq(t.results.id, r.id))
+  return row!
+}

@@ -1,0 +1,95 @@
+import { and, desc, eq, inArray } from 'drizzle-orm'
+import type { DB } from '../../database/client'
+import { tables as t } from '../../database/client'
+import type { Result, Study } from '../../database/schema'
+import { resultUnit, type StudySpec } from '../../../shared/physics/study/spec'
+import { DomainError, fail } from '../errors'
+import { setsOfWorkspace } from '../sets/library'
+import { checkSpec, reachProblems, type ReachProblem } from './check'
+
+/** What the API shows of a study. */
+export const publicStudy = (s: Study) => ({
+  id: s.id, name: s.name, description: s.description, spec: s.spec, setIds: s.setIds,
+  secondSetId: s.secondSetId, prescription: s.prescription, clPercent: s.clPercent,
+  revision: s.revision, createdBy: s.createdBy, createdAt: s.createdAt, updatedAt: s.updatedAt,
+  unit: safeUnit(s.spec)
+})
+
+function safeUnit(spec: StudySpec) {
+  try {
+    return resultUnit(spec)
+  } catch {
+    return null
+  }
+}
+
+/** What the API shows of a result version (no member values). */
+export const publicResult = (r: Result) => ({
+  id: r.id, studyId: r.studyId, setId: r.setId, secondSetId: r.secondSetId, version: r.version,
+  studyRevision: r.studyRevision, state: r.state,
+  progress: { done: r.membersDone, total: r.membersTotal },
+  binCount: r.binCount, error: r.error, cancelRequested: r.cancelRequested,
+  reviewState: r.reviewState, frozen: r.reviewState === 'approved', engineVersion: r.engineVersion,
+  requestedBy: r.requestedBy, startedAt: r.startedAt, finishedAt: r.finishedAt,
+  createdAt: r.createdAt, updatedAt: r.updatedAt
+})
+
+export interface StudyInput {
+  spec: unknown
+  setIds: string[]
+  secondSetId: string | null
+}
+
+/**
+ * The validated spec of a study, its sets and second set, or: 400 with `data.issues` (engine
+ * issues located by bin and column, or a set that is not in the workspace), 422 with
+ * `data.issues` when a bin lies beyond the kinematic limit or outside a set's grid.
+ */
+export async function validateStudy(db: DB, workspaceId: string, input: StudyInput) {
+  const checked = checkSpec(input.spec)
+  if (!checked.spec) {
+    fail(400, `The study has ${checked.issues.length} problem${checked.issues.length > 1 ? 's' : ''}: ${checked.issues[0]!.message}`, { issues: checked.issues.map(i => ({ message: i.message, bin: i.bin, column: i.column, path: i.path })) })
+  }
+  const sets = await setsOfWorkspace(db, workspaceId, input.setIds)
+  const [second] = input.secondSetId ? await setsOfWorkspace(db, workspaceId, [input.secondSetId], 'secondSetId') : [null]
+  const problems: ReachProblem[] = sets.flatMap(s => reachProblems(checked.spec, s, second))
+  if (problems.length) throw reachError(problems)
+  return { spec: checked.spec, sets, second: second ?? null }
+}
+
+export function reachError(problems: ReachProblem[]) {
+  return new DomainError(422, `${problems.length} bin${problems.length > 1 ? 's are' : ' is'} out of reach: ${problems[0]!.message}`, { issues: problems.map(p => ({ message: p.message, bin: p.bin, setId: p.setId, kind: p.kind })) })
+}
+
+/** The newest version of each (study, set) result, for lists and comparisons. */
+export async function latestResults(db: DB, studyIds: readonly string[]) {
+  if (studyIds.length === 0) return []
+  const rows = await db.select().from(t.results)
+    .where(inArray(t.results.studyId, [...studyIds]))
+    .orderBy(desc(t.results.version))
+  const seen = new Set<string>()
+  return rows.filter((r) => {
+    const key = `${r.studyId}:${r.setId}`
+    if (seen.has(key)) return false
+    seen.add(key)
+    return true
+  })
+}
+
+/** The newest finished version of a study's result on each of `setIds`. */
+export async function latestDoneResults(db: DB, studyId: string, setIds: readonly string[]) {
+  if (setIds.length === 0) return []
+  const rows = await db.select().from(t.results)
+    .where(and(eq(t.results.studyId, studyId), inArray(t.results.setId, [...setIds]), eq(t.results.state, 'done')))
+    .orderBy(desc(t.results.version))
+  const bySet = new Map<string, Result>()
+  for (const r of rows) if (!bySet.has(r.setId)) bySet.set(r.setId, r)
+  return setIds.flatMap(id => (bySet.has(id) ? [bySet.get(id)!] : []))
+}
+
+/** The live-bar view of a result: state, members done / total and percent. */
+export const progressOf = (r: Result) => ({
+  id: r.id, state: r.state, error: r.error, cancelRequested: r.cancelRequested,
+  progress: { done: r.membersDone, total: r.membersTotal, percent: r.membersTotal ? Math.round((100 * r.membersDone) / r.membersTotal) : 0 },
+  startedAt: r.startedAt, finishedAt: r.finishedAt
+})

@@ -1,0 +1,133 @@
+// Request bodies and queries of the workflow routes (zod). The study's spec itself is checked by
+// the engine (checkStudySpec), which locates problems by bin and column.
+import { z } from 'zod'
+import { PRESCRIPTIONS } from '../physics/uncertainty/bands'
+import { GridSpecSchema, MembersSpecSchema } from '../physics/input/schema'
+
+const clPercent = z.number({ error: 'The confidence level is a number of percent' })
+  .gt(0, 'The confidence level must be above 0%').lt(100, 'The confidence level must be below 100%')
+
+export const prescriptionChoice = z.enum(['auto', ...PRESCRIPTIONS], {
+  error: `Choose a prescription: auto, ${PRESCRIPTIONS.join(', ')}`
+})
+
+const setIdList = z.array(z.uuid({ error: 'Each set id must be a uuid' })).max(20, 'Run at most 20 sets in one study')
+  .refine(ids => new Set(ids).size === ids.length, 'A set appears twice in setIds')
+
+export const studyCreateSchema = z.object({
+  name: z.string({ error: 'Give the study a name' }).trim().min(1, 'Give the study a name').max(200, 'Keep the name under 200 characters'),
+  description: z.string().max(5000, 'Keep the description under 5000 characters').default(''),
+  /** The engine's StudySpec (kernel, options, bins …), checked by the engine. */
+  spec: z.unknown().refine(v => v !== undefined, 'Give the study spec (kernel, options and bins)'),
+  setIds: setIdList.default([]),
+  secondSetId: z.uuid({ error: 'secondSetId must be a uuid' }).nullable().default(null),
+  prescription: prescriptionChoice.default('auto'),
+  clPercent: clPercent.default(68)
+}).strict()
+export type StudyCreate = z.infer<typeof studyCreateSchema>
+
+/** A PATCH changes any subset of the fields; `revision` guards against overwriting a newer save. */
+export const studyPatchSchema = z.object({
+  name: studyCreateSchema.shape.name.optional(),
+  description: z.string().max(5000).optional(),
+  spec: z.unknown().optional(),
+  setIds: setIdList.optional(),
+  secondSetId: z.uuid().nullable().optional(),
+  prescription: prescriptionChoice.optional(),
+  clPercent: clPercent.optional(),
+  revision: z.number().int().min(1).optional()
+}).strict()
+
+/** Body of POST …/studies/validate: a draft to check without saving. */
+export const studyDraftSchema = z.object({
+  spec: z.unknown(),
+  setIds: setIdList.default([]),
+  secondSetId: z.uuid().nullable().default(null)
+}).strict()
+
+/** Body of POST …/studies/[id]/run: which of the study's sets to run (default all). */
+export const runRequestSchema = z.object({
+  setIds: z.array(z.uuid()).min(1, 'Pick at least one set to run').optional()
+}).strict()
+
+/** Query of a result's bands: prescription (default the study's) and CL (default the study's). */
+export const bandsQuerySchema = z.object({
+  prescription: prescriptionChoice.optional(),
+  cl: z.coerce.number({ error: 'cl is a number of percent' }).gt(0, 'cl must be above 0').lt(100, 'cl must be below 100').optional()
+})
+
+export const exportQuerySchema = bandsQuerySchema.extend({
+  format: z.enum(['csv', 'json', 'latex', 'covariance', 'correlation'], { error: 'format is one of csv, json, latex, covariance, correlation' })
+})
+
+export const contributionsQuerySchema = z.object({
+  bin: z.coerce.number({ error: 'bin is a 1-based bin number' }).int('bin is a whole number').min(1, 'bins are numbered from 1'),
+  cl: bandsQuerySchema.shape.cl
+})
+
+export const reviewCommentSchema = z.object({
+  comment: z.string().trim().max(4000, 'Keep the comment under 4000 characters').default('')
+}).strict()
+
+export const returnCommentSchema = z.object({
+  comment: z.string({ error: 'Say what needs to change' }).trim().min(1, 'Say what needs to change').max(4000, 'Keep the comment under 4000 characters')
+}).strict()
+
+/** Query of a set's densities at one Q². */
+export const densitiesQuerySchema = z.object({
+  q2: z.coerce.number({ error: 'q2 is a number of GeV²' }).positive('Q² must be positive'),
+  flavours: z.string().default('21,2,1,-2,-1,3')
+    .transform((s, ctx) => {
+      const list = s.split(',').map(v => v.trim()).filter(Boolean)
+      const bad = list.filter(v => !/^(-?[1-6]|21|22|uv|dv)$/.test(v))
+      if (bad.length) ctx.addIssue({ code: 'custom', message: `Unknown flavour ${bad.join(', ')}: use PDG codes (1..6, -1..-6, 21, 22) or uv, dv` })
+      return list.map(v => (v === 'uv' || v === 'dv' ? v : Number(v)))
+    }),
+  points: z.coerce.number().int().min(10).max(400).default(100),
+  prescription: prescriptionChoice.optional(),
+  cl: bandsQuerySchema.shape.cl,
+  ratioTo: z.uuid({ error: 'ratioTo is the id of another set' }).optional()
+})
+
+export const sumRulesQuerySchema = z.object({
+  q2: z.coerce.number({ error: 'q2 is a number of GeV²' }).positive('Q² must be positive'),
+  prescription: prescriptionChoice.optional(),
+  cl: bandsQuerySchema.shape.cl
+})
+
+/** Body of POST …/sets/builds: build an error set from a parametrised fit. */
+export const setBuildSchema = z.object({
+  /** Name of the set to create; default the input document's name. */
+  name: z.string().trim().min(1).max(120).optional(),
+  /** The parametrised input (or nuclear modification) document, as JSON. */
+  input: z.unknown().refine(v => v !== undefined, 'Give the parametrised input document'),
+  /** For a nuclear modification: its baseline parametrised input. */
+  baseline: z.unknown().optional(),
+  /** Hessian (tolerance) or replicas (count, seed); overrides the document's `members`. */
+  members: MembersSpecSchema.optional(),
+  /** Output grid; overrides the document's `grid`. */
+  grid: GridSpecSchema.optional()
+}).strict()
+
+/** Comparison of several sets' latest results of one study. */
+export const comparisonQuerySchema = z.object({
+  setIds: z.string().optional().transform(s => (s ? s.split(',').map(v => v.trim()).filter(Boolean) : undefined))
+    .pipe(z.array(z.uuid({ error: 'setIds is a comma-separated list of set ids' })).optional()),
+  cl: bandsQuerySchema.shape.cl,
+  /** Default: 100, or fewer when a replica set has fewer replicas. */
+  replicasPerSet: z.coerce.number().int().min(2).max(2000).optional(),
+  seed: z.coerce.number().int().min(0).max(Number.MAX_SAFE_INTEGER).default(1)
+})
+
+export const measurementJsonSchema = z.object({
+  name: z.string({ error: 'Give the measurement a name' }).trim().min(1, 'Give the measurement a name').max(200),
+  /** The points CSV text. */
+  csv: z.string({ error: 'Give the points as CSV text' }).min(1, 'The CSV is empty'),
+  /** Optional N × N correlation matrix: CSV text, JSON text, or an array of rows. */
+  correlation: z.union([z.string(), z.array(z.array(z.number()))]).optional(),
+  correlationOf: z.enum(['syst', 'total']).default('total')
+}).strict()
+
+export const chi2QuerySchema = z.object({
+  setIds: comparisonQuerySchema.shape.setIds
+})
