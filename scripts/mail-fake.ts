@@ -3,6 +3,7 @@
 // Env: DATABASE_URL, MAIL_FAKE_PORT (default 2525).
 import { SMTPServer } from 'smtp-server'
 import { createDB, tables } from '../server/database/client'
+import { isDatabaseFailure, logText } from '../server/domain/log-text'
 import { parseMail } from '../server/domain/mail/mime'
 
 const port = Number(process.env.MAIL_FAKE_PORT ?? 2525)
@@ -33,7 +34,11 @@ const server = new SMTPServer({
           htmlBody: mail.html,
           raw: bytes.toString('utf8')
         })
-      }).then(() => callback(), (err: Error) => callback(err))
+      }).then(() => callback(), (err: unknown) => {
+        // The failed insert's own message quotes the message (tokens and all): log and answer without it.
+        console.error(`[mail-fake] message not stored: ${logText(err)}`)
+        callback(new Error(isDatabaseFailure(err) ? 'The mail fake could not store the message' : 'The mail fake could not read the message'))
+      })
     })
   }
 })

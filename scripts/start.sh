@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # npm start: install what is missing, start PostgreSQL, Redis and the mail fake on loopback,
 # migrate, seed, build, then serve http://127.0.0.1:3000 with the worker. Ctrl-C stops the app
-# and the worker; `bash scripts/stop.sh` stops the services too.
+# and the worker; `bash scripts/stop.sh` stops the services too. Prints the Outbox link with its
+# key (.data/outbox-key).
 source "$(dirname "$0")/lib/services.sh"
 cd "$ROOT"
 
@@ -18,6 +19,20 @@ export REDIS_URL="redis://127.0.0.1:$REDIS_PORT/0"
 export SMTP_URL="smtp://127.0.0.1:$MAIL_PORT"
 export SHEAF_MAIL_FAKE=1
 export APP_ORIGIN="http://127.0.0.1:$APP_PORT"
+# The server answers for APP_ORIGIN's host only, plus these (comma-separated host:port).
+export SHEAF_ALLOWED_HOSTS="${SHEAF_ALLOWED_HOSTS:-localhost:$APP_PORT}"
+
+# The Outbox shows every account's mail, so all of it needs a key: made once, kept in
+# .data/outbox-key (readable by this user only) and reused on later starts. Only the app gets it.
+OUTBOX_KEY_FILE="$DATA/outbox-key"
+if [ -z "${SHEAF_OUTBOX_KEY:-}" ]; then
+  if [ ! -s "$OUTBOX_KEY_FILE" ]; then
+    mkdir -p "$DATA"
+    (umask 077 && node -e "process.stdout.write(require('node:crypto').randomBytes(32).toString('base64url'))" >"$OUTBOX_KEY_FILE")
+    log "made the Outbox key (.data/outbox-key)"
+  fi
+  SHEAF_OUTBOX_KEY="$(cat "$OUTBOX_KEY_FILE")"
+fi
 
 node_modules/.bin/tsx scripts/migrate.ts
 node_modules/.bin/tsx scripts/seed.ts
@@ -33,10 +48,12 @@ stop_children() {
 }
 trap stop_children INT TERM EXIT
 
-HOST=127.0.0.1 PORT="$APP_PORT" node .output/server/index.mjs &
+HOST=127.0.0.1 PORT="$APP_PORT" SHEAF_OUTBOX_KEY="$SHEAF_OUTBOX_KEY" node .output/server/index.mjs &
 pids+=($!)
 node_modules/.bin/tsx workers/index.ts &
 pids+=($!)
 wait_for_health "$APP_ORIGIN"
-log "Sheaf is ready on $APP_ORIGIN (Outbox: $APP_ORIGIN/outbox). Ctrl-C to stop."
+log "Sheaf is ready on $APP_ORIGIN. Ctrl-C to stop."
+log "Outbox, the mail of every local account (for you only, do not share the link):"
+log "  $APP_ORIGIN/outbox?key=$SHEAF_OUTBOX_KEY"
 wait -n "${pids[@]}" || true

@@ -56,6 +56,7 @@ export SHEAF_MAIL_FAKE=1
 export APP_ORIGIN="http://127.0.0.1:$APP_PORT"
 export TEST_APP_URL="$APP_ORIGIN"
 export SHEAF_TRUST_PROXY=1
+export SHEAF_OUTBOX_KEY="${SHEAF_OUTBOX_KEY:-$(node -e "process.stdout.write(require('node:crypto').randomBytes(32).toString('base64url'))")}"
 
 node_modules/.bin/tsx scripts/migrate.ts
 build_if_needed

@@ -3,6 +3,7 @@
 import { Worker } from 'bullmq'
 import IORedis from 'ioredis'
 import { createDB } from '../server/database/client'
+import { logText } from '../server/domain/log-text'
 import { readSettings } from '../server/domain/settings'
 import { BUILD_SET_QUEUE, RUN_STUDY_QUEUE } from '../shared/queue/workflow'
 import { buildSetJob, runStudyJob } from './handlers'
@@ -17,7 +18,7 @@ const workers = [
 ]
 
 for (const w of workers) {
-  w.on('failed', (job, err) => console.error(`[worker] ${w.name} ${job?.id} failed: ${err.message}`))
+  w.on('failed', (job, err) => console.error(`[worker] ${w.name} ${job?.id} failed: ${logText(err)}`))
   w.on('ready', () => console.log(`[worker] listening on queue ${w.name}`))
 }
 

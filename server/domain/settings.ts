@@ -16,6 +16,10 @@ export interface Settings {
   trustProxy: boolean
   /** A job must have run this long before its end is mailed (SHEAF_MAIL_AFTER_MS, 0 mails every job). */
   mailAfterMs: number
+  /** The operator's key to the whole Outbox (SHEAF_OUTBOX_KEY); null: each user sees only their own mail. */
+  outboxKey: string | null
+  /** The hosts (host:port as in a URL) the server answers for: APP_ORIGIN's, then SHEAF_ALLOWED_HOSTS. */
+  allowedHosts: string[]
 }
 
 export const LOCAL_DEFAULTS = {
@@ -46,8 +50,35 @@ export function readSettings(env: Env = process.env, fallback: Partial<typeof LO
     appOrigin,
     secureCookies: appOrigin.startsWith('https:'),
     trustProxy: env.SHEAF_TRUST_PROXY === '1',
-    mailAfterMs: nonNegative(env.SHEAF_MAIL_AFTER_MS, 3000)
+    mailAfterMs: nonNegative(env.SHEAF_MAIL_AFTER_MS, 3000),
+    outboxKey: env.SHEAF_OUTBOX_KEY?.trim() || null,
+    allowedHosts: allowedHosts(appOrigin, env.SHEAF_ALLOWED_HOSTS)
   }
+}
+
+/**
+ * `value` (a Host header, `host[:port]` or an origin) as URL.host spells it under `protocol`:
+ * lower case, the default port dropped; null for anything that is not a bare host.
+ */
+export function normalHost(value: string, protocol: string): string | null {
+  try {
+    const url = new URL(value.includes('://') ? value : `${protocol}//${value}`)
+    const bare = url.host && url.pathname === '/' && !url.search && !url.hash && !url.username && !url.password
+    return bare ? url.host : null
+  } catch {
+    return null
+  }
+}
+
+function allowedHosts(appOrigin: string, extra = '') {
+  const { host, protocol } = new URL(appOrigin)
+  const hosts = [host]
+  for (const entry of extra.split(',').map(e => e.trim()).filter(Boolean)) {
+    const normal = normalHost(entry, protocol)
+    if (!normal) throw new Error(`SHEAF_ALLOWED_HOSTS: "${entry}" is not a host[:port]`)
+    if (!hosts.includes(normal)) hosts.push(normal)
+  }
+  return hosts
 }
 
 /** An absolute link into the app, e.g. appLink(settings, '/verify', { token }). */

@@ -1,25 +1,39 @@
-import { verifyRequestOrigin } from 'lucia'
-
 const SAFE = new Set(['GET', 'HEAD', 'OPTIONS'])
 
-// Cross-site request forgery guard: every mutating API request must come from our own origin.
+// Cross-site request forgery guard: every mutating API request must come from one of our own
+// origins — APP_ORIGIN, or a host of SHEAF_ALLOWED_HOSTS under APP_ORIGIN's scheme — compared
+// by scheme, host and port. The request's own Host is never trusted for this (DNS rebinding).
 export default defineEventHandler((event) => {
   if (SAFE.has(event.method) || !event.path.startsWith('/api/')) return
   const origin = getRequestHeader(event, 'origin') ?? refererOrigin(getRequestHeader(event, 'referer'))
-  const allowed = [new URL(useSettings().appOrigin).host, getRequestHost(event)]
   if (!origin) {
     throw createError({ statusCode: 403, statusMessage: 'Request refused: no Origin or Referer header on a state-changing request' })
   }
-  if (!verifyRequestOrigin(origin, allowed)) {
-    throw createError({ statusCode: 403, statusMessage: `Request refused: origin ${origin} is not this site` })
+  if (!ourOrigins().has(normalOrigin(origin) ?? '')) {
+    throw createError({ statusCode: 403, statusMessage: `Request refused: origin ${origin.slice(0, 200)} is not this site` })
   }
 })
 
-function refererOrigin(referer: string | undefined) {
-  if (!referer) return undefined
+let origins: Set<string> | undefined
+function ourOrigins() {
+  if (!origins) {
+    const { appOrigin, allowedHosts } = useSettings()
+    const { protocol } = new URL(appOrigin)
+    origins = new Set([appOrigin, ...allowedHosts.map(host => `${protocol}//${host}`)])
+  }
+  return origins
+}
+
+/** scheme://host[:port] as URL.origin spells it (default port dropped), or undefined. */
+function normalOrigin(value: string) {
   try {
-    return new URL(referer).origin
+    const url = new URL(value)
+    return url.protocol === 'http:' || url.protocol === 'https:' ? url.origin : undefined
   } catch {
     return undefined
   }
+}
+
+function refererOrigin(referer: string | undefined) {
+  return referer ? normalOrigin(referer) : undefined
 }

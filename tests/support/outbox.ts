@@ -1,5 +1,7 @@
 import { and, arrayContains, desc, gt } from 'drizzle-orm'
 import { tables, testDB } from './db'
+import { testEnv } from './env'
+import { ApiClient } from './http'
 
 /** The newest message to `to` (received after `since`), polling the mail_outbox table up to 10 s. */
 export async function waitForMail(to: string, subject?: RegExp, since = new Date(0)) {
@@ -21,3 +23,20 @@ export function linkIn(text: string, pathPrefix: string): URL {
   if (!hit) throw new Error(`no ${pathPrefix} link in:\n${text}`)
   return hit
 }
+
+/** The operator's Outbox key: scripts/test.sh exports it, and the test app reads the same variable. */
+export function outboxKey(): string {
+  const key = process.env.SHEAF_OUTBOX_KEY
+  if (!key) throw new Error('SHEAF_OUTBOX_KEY is not set: run the tests with `npm test` (bash scripts/test.sh [vitest args])')
+  return key
+}
+
+/** GET /api/outbox with the operator's key (header x-outbox-key), through `client` (anonymous by default). */
+export function readOutbox(client = new ApiClient(), key = outboxKey()) {
+  return client.request<{ everything: boolean, messages: OutboxEntry[] }>('GET', '/api/outbox', undefined, { 'x-outbox-key': key })
+}
+
+/** The Outbox page with the key in its address, as `npm start` prints it. */
+export const outboxPageUrl = () => `${testEnv().appUrl}/outbox?key=${encodeURIComponent(outboxKey())}`
+
+export interface OutboxEntry { id: string, from: string, to: string[], subject: string, text: string, links: string[], receivedAt: string }

@@ -4,6 +4,7 @@
 import { and, eq, inArray } from 'drizzle-orm'
 import type { DB, tables as t } from '../../database/client'
 import { failureReason } from '../../../shared/queue/workflow'
+import { logText } from '../log-text'
 
 /** Thrown by work that saw its row's cancel flag. */
 export class JobCancelled extends Error {}
@@ -76,7 +77,7 @@ export async function runQueuedWork<Row, Out extends object>(db: DB, attempt: At
     const physics = err instanceof RangeError
     const final = physics || attempt.last
     const message = failureReason(err)
-    if (!physics) console.error(`[jobs] ${attempt.label}:`, err instanceof Error && err.cause instanceof Error ? err.cause.message : message)
+    if (!physics) console.error(`[jobs] ${attempt.label}: ${logText(err)}`)
     await db.update(table).set({ state: final ? 'failed' : 'queued', error: message, finishedAt: final ? new Date() : null }).where(eq(table.id, w.id))
     if (final) await w.ended?.()
     throw physics ? new FinalFailure(message) : new Error(message)
