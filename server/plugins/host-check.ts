@@ -12,18 +12,21 @@ export default defineNitroPlugin((nitroApp) => {
 
 let allowed: { hosts: Set<string>, protocol: string, appOrigin: string } | undefined
 
+/**
+ * Answers a refused request itself (421, or 400 without Host) instead of throwing: the error
+ * handlers build the request's URL from its Host, which must not be trusted any further.
+ */
 function checkHost(event: H3Event) {
   if (!allowed) {
     const { appOrigin, allowedHosts } = useSettings()
     allowed = { hosts: new Set(allowedHosts), protocol: new URL(appOrigin).protocol, appOrigin }
   }
   const raw = event.node.req.headers.host
-  if (!raw) throw createError({ statusCode: 400, statusMessage: 'A Host header is required' })
-  const host = normalHost(raw, allowed.protocol)
-  if (!host || !allowed.hosts.has(host)) {
-    throw createError({
-      statusCode: 421,
-      statusMessage: `This server does not answer for the host ${raw.slice(0, 100)}; open ${allowed.appOrigin}`
-    })
-  }
+  const host = raw ? normalHost(raw, allowed.protocol) : null
+  if (host && allowed.hosts.has(host)) return
+  const [statusCode, statusMessage] = raw
+    ? [421, `This server does not answer for the host ${raw.slice(0, 100)}; open ${allowed.appOrigin}`]
+    : [400, 'A Host header is required']
+  setResponseStatus(event, statusCode, statusMessage)
+  return { error: true, statusCode, statusMessage, message: statusMessage }
 }
