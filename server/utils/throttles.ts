@@ -1,54 +1,72 @@
 import type { H3Event } from 'h3'
-import { createThrottle, type Throttle } from '../domain/accounts/throttle'
+import { giveBackAttempt, takeAttempt, type ThrottleKey, type ThrottleRule } from '../domain/accounts/throttle'
 
-// Five failures per account or thirty per address within 15 minutes lock that key for the rest
-// of the window (common practice; the numbers are ours).
+// Sign-in attempts are counted before the password is checked, in 15-minute fixed windows
+// (our numbers):
+// - pair: 5 per account from one client address. The 6th is refused for that address only, so
+//   the owner signing in from another address is not locked out by someone guessing.
+// - address: 30 per client address across all accounts (one address spraying many accounts).
+// - account: 100 per account from all addresses together, a ceiling against guessing spread
+//   over many addresses (at least 20 addresses at the pair limit); reaching it refuses
+//   everyone for the rest of the window.
+// A right password clears the pair's count and takes the attempt back from the other two.
 export const SIGNIN_RULES = {
-  account: { prefix: 'throttle:signin:account', limit: 5, windowSeconds: 900 },
-  address: { prefix: 'throttle:signin:address', limit: 30, windowSeconds: 900 }
-} as const
+  pair: { prefix: 'throttle:signin:pair', limit: 5, windowSeconds: 900 },
+  address: { prefix: 'throttle:signin:address', limit: 30, windowSeconds: 900 },
+  account: { prefix: 'throttle:signin:account', limit: 100, windowSeconds: 900 }
+} as const satisfies Record<string, ThrottleRule>
 
-let throttles: { account: Throttle, address: Throttle } | undefined
-const useThrottles = () => (throttles ??= {
-  account: createThrottle(useRedis(), SIGNIN_RULES.account),
-  address: createThrottle(useRedis(), SIGNIN_RULES.address)
-})
+// At most five mails per e-mail address per hour from the self-service forms (our number).
+export const MAIL_RULE: ThrottleRule = { prefix: 'throttle:mail', limit: 5, windowSeconds: 3600 }
 
-export const clientAddress = (event: H3Event) =>
-  getRequestIP(event, { xForwardedFor: useSettings().trustProxy }) ?? 'unknown'
+/** The client's address (from X-Forwarded-For only when SHEAF_TRUST_PROXY=1). */
+export function clientAddress(event: H3Event): string {
+  return getRequestIP(event, { xForwardedFor: useSettings().trustProxy }) ?? 'unknown'
+}
 
-function tooMany(event: H3Event, seconds: number): never {
+function signinKeys(event: H3Event, email: string) {
+  const address = clientAddress(event)
+  return {
+    // The address comes first: it cannot contain '|', so the id is unambiguous.
+    pair: { rule: SIGNIN_RULES.pair, id: `${address}|${email}` },
+    address: { rule: SIGNIN_RULES.address, id: address },
+    account: { rule: SIGNIN_RULES.account, id: email }
+  } satisfies Record<string, ThrottleKey>
+}
+
+const waitText = (seconds: number) => (seconds < 60 ? `${seconds} s` : `${Math.ceil(seconds / 60)} min`)
+
+/**
+ * Count this sign-in attempt on the pair, address and account counters before the password is
+ * checked; 429 with Retry-After (and the wait in the message) when one of them is full, in which
+ * case nothing is counted and the password must not be checked.
+ */
+export async function countSigninAttempt(event: H3Event, email: string): Promise<void> {
+  const { pair, address, account } = signinKeys(event, email)
+  const verdict = await takeAttempt(useRedis(), [pair, address, account])
+  if (verdict.allowed) return
+  const seconds = verdict.retryAfterSeconds
   setResponseHeader(event, 'Retry-After', seconds)
   throw createError({
     statusCode: 429,
-    statusMessage: `Too many failed sign-ins; try again in ${Math.ceil(seconds / 60)} min`,
+    statusMessage: `Too many sign-in attempts; try again in ${waitText(seconds)}`,
     data: { retryAfterSeconds: seconds }
   })
 }
 
-/** 429 with Retry-After when the account or the client address is locked. */
-export async function assertSigninAllowed(event: H3Event, email: string) {
-  const t = useThrottles()
-  const [a, b] = await Promise.all([t.account.check(email), t.address.check(clientAddress(event))])
-  if (a.blocked || b.blocked) tooMany(event, Math.max(a.retryAfterSeconds, b.retryAfterSeconds))
+/** The password was right: clear the pair's count, take the attempt back from the others. */
+export async function signinSucceeded(event: H3Event, email: string): Promise<void> {
+  const { pair, address, account } = signinKeys(event, email)
+  await giveBackAttempt(useRedis(), [pair], [address, account])
 }
 
-/** Count a failure on both keys. */
-export async function recordSigninFailure(event: H3Event, email: string) {
-  const t = useThrottles()
-  await Promise.all([t.account.fail(email), t.address.fail(clientAddress(event))])
+/** After a password reset: clear the account's count and this address's count for it. */
+export async function clearSigninFailures(event: H3Event, email: string): Promise<void> {
+  const { pair, account } = signinKeys(event, email)
+  await giveBackAttempt(useRedis(), [pair, account])
 }
 
-export async function clearSigninFailures(email: string) {
-  await useThrottles().account.reset(email)
-}
-
-// At most five mails per address per hour from the self-service forms (our number).
-let mailThrottle: Throttle | undefined
 /** False when `email` already received too many self-service mails this hour; else counts this one. */
-export async function mayMail(email: string) {
-  mailThrottle ??= createThrottle(useRedis(), { prefix: 'throttle:mail', limit: 5, windowSeconds: 3600 })
-  if ((await mailThrottle.check(email)).blocked) return false
-  await mailThrottle.fail(email)
-  return true
+export async function mayMail(email: string): Promise<boolean> {
+  return (await takeAttempt(useRedis(), [{ rule: MAIL_RULE, id: email }])).allowed
 }

@@ -98,10 +98,13 @@ export function formText(form: UploadForm, name: string): string | undefined {
   return text ? text : undefined
 }
 
-/** The measurement upload as JSON (measurementJsonSchema) or multipart (files `points`, `correlation`). */
+/**
+ * The measurement upload as JSON (measurementJsonSchema) or multipart (files `points`,
+ * `correlation`); either way at most the CSV limit (SHEAF_CSV_MAX_BYTES, default 4 MiB).
+ */
 export async function readMeasurementUpload(event: H3Event): Promise<MeasurementUpload> {
   const type = getRequestHeader(event, 'content-type') ?? ''
-  if (!type.toLowerCase().startsWith('multipart/form-data')) return readValid(event, measurementJsonSchema)
+  if (!type.toLowerCase().startsWith('multipart/form-data')) return readValid(event, measurementJsonSchema, { maxBytes: uploadLimits().csvBytes })
   const form = await readUploadForm(event, uploadLimits().csvBytes)
   const points = formFile(form, 'points')
   const correlationFile = form.files.get('correlation')

@@ -1,6 +1,7 @@
 import type { H3Event } from 'h3'
 import type { z } from 'zod'
 import { fieldErrors } from '../../shared/utils/account-schemas'
+import { readJsonBody, type JsonBodyLimits } from './json-body'
 
 function invalid(error: z.ZodError, where: string): never {
   throw createError({
@@ -10,11 +11,13 @@ function invalid(error: z.ZodError, where: string): never {
   })
 }
 
-/** The JSON body parsed by `schema`, or 400 with `data.fields` naming each bad field. */
-export async function readValid<S extends z.ZodType>(event: H3Event, schema: S): Promise<z.infer<S>> {
-  const body = await readBody(event).catch(() => {
-    throw createError({ statusCode: 400, statusMessage: 'The request body is not valid JSON' })
-  })
+/**
+ * The JSON body parsed by `schema`, or 400 with `data.fields` naming each bad field. The body
+ * is read with limits (server/utils/json-body.ts): 413 past `limits.maxBytes` (default 1 MiB)
+ * before it is all read, 400 when it is not JSON or nests deeper than 64 levels.
+ */
+export async function readValid<S extends z.ZodType>(event: H3Event, schema: S, limits?: JsonBodyLimits): Promise<z.infer<S>> {
+  const body = await readJsonBody(event, limits)
   const parsed = schema.safeParse(body ?? {})
   if (!parsed.success) invalid(parsed.error, 'highlighted fields')
   return parsed.data

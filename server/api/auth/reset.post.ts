@@ -17,6 +17,6 @@ export default defineEventHandler(async (event) => {
     await audit(tx, { actorId: userId, action: 'user.password_reset', subjectType: 'user', subjectId: userId })
     return row!
   })
-  await clearSigninFailures(user.email)
+  await clearSigninFailures(event, user.email)
   return { user: publicUser(user) }
 })

@@ -3,41 +3,81 @@ import type { Redis } from 'ioredis'
 export interface ThrottleRule {
   /** Key prefix in Redis, e.g. 'throttle:signin:account'. */
   prefix: string
-  /** Failures allowed inside the window before the key is locked. */
+  /** Attempts allowed inside the window; the next one is refused until the window ends. */
   limit: number
-  /** Window length and lock length, seconds. */
+  /** Window length (and so the longest lock), seconds. */
   windowSeconds: number
 }
 
-export interface ThrottleState { blocked: boolean, retryAfterSeconds: number }
+/** One counter: a rule and what it counts for (an e-mail, a client address, or both). */
+export interface ThrottleKey { rule: ThrottleRule, id: string }
 
-/**
- * Fixed-window failure counter in Redis: `fail` counts, `check` says whether the key is locked
- * (count ≥ limit) and for how long, `reset` clears after a success. No Nitro imports, so the
- * unit tests run it against ioredis-mock.
- */
-export function createThrottle(redis: Redis, rule: ThrottleRule) {
-  const key = (id: string) => `${rule.prefix}:${id.toLowerCase()}`
-
-  async function check(id: string): Promise<ThrottleState> {
-    const [count, ttl] = await Promise.all([redis.get(key(id)), redis.ttl(key(id))])
-    const blocked = Number(count ?? 0) >= rule.limit
-    return { blocked, retryAfterSeconds: blocked ? Math.max(1, ttl) : 0 }
-  }
-
-  async function fail(id: string): Promise<ThrottleState> {
-    const k = key(id)
-    const count = await redis.incr(k)
-    if (count === 1) await redis.expire(k, rule.windowSeconds)
-    const blocked = count >= rule.limit
-    return { blocked, retryAfterSeconds: blocked ? Math.max(1, await redis.ttl(k)) : 0 }
-  }
-
-  async function reset(id: string): Promise<void> {
-    await redis.del(key(id))
-  }
-
-  return { check, fail, reset, rule }
+export interface AttemptVerdict {
+  allowed: boolean
+  /** Seconds until every full counter has expired; 0 when allowed. */
+  retryAfterSeconds: number
 }
 
-export type Throttle = ReturnType<typeof createThrottle>
+export const throttleKey = (k: ThrottleKey) => `${k.rule.prefix}:${k.id.toLowerCase()}`
+
+// One atomic step for all counters of an attempt. If any counter has reached its limit, nothing
+// is counted and the script answers the longest time left on a full counter (at least 1 s);
+// otherwise every counter goes up by one, a new counter gets its window as expiry (and so does
+// a counter found without one), and the script answers 0.
+// KEYS: the counters; ARGV: limit and window seconds of each, in pairs.
+const TAKE = `
+local wait = 0
+for i, key in ipairs(KEYS) do
+  if tonumber(redis.call('GET', key) or '0') >= tonumber(ARGV[2 * i - 1]) then
+    local left = redis.call('TTL', key)
+    if left < 0 then
+      left = tonumber(ARGV[2 * i])
+      redis.call('EXPIRE', key, left)
+    end
+    if left < 1 then left = 1 end
+    if left > wait then wait = left end
+  end
+end
+if wait > 0 then return wait end
+for i, key in ipairs(KEYS) do
+  redis.call('INCR', key)
+  if redis.call('TTL', key) < 0 then redis.call('EXPIRE', key, ARGV[2 * i]) end
+end
+return 0
+`
+
+// After a success: delete the first ARGV[1] counters outright and take this attempt back from
+// the others (never below zero, never creating a counter, keeping its expiry).
+const GIVE_BACK = `
+local clear = tonumber(ARGV[1])
+for i, key in ipairs(KEYS) do
+  if i <= clear then
+    redis.call('DEL', key)
+  elseif tonumber(redis.call('GET', key) or '0') > 0 then
+    redis.call('DECR', key)
+  end
+end
+return 0
+`
+
+/**
+ * Count one attempt against every counter in `keys` before the guarded work runs, atomically:
+ * concurrent attempts cannot all read a count below the limit, so at most `limit` attempts per
+ * counter and window get through. A refused attempt counts nowhere. Fixed windows: the expiry
+ * is set by the first attempt of a window.
+ */
+export async function takeAttempt(redis: Redis, keys: ThrottleKey[]): Promise<AttemptVerdict> {
+  const args = keys.flatMap(k => [k.rule.limit, k.rule.windowSeconds])
+  const wait = Number(await redis.eval(TAKE, keys.length, ...keys.map(throttleKey), ...args))
+  return { allowed: wait === 0, retryAfterSeconds: wait }
+}
+
+/**
+ * After the guarded work succeeded: delete the counters in `clear` and take the attempt back
+ * from those in `keep` (a success is not a failure, but it must not wipe other failures).
+ */
+export async function giveBackAttempt(redis: Redis, clear: ThrottleKey[], keep: ThrottleKey[] = []): Promise<void> {
+  const keys = [...clear, ...keep]
+  if (!keys.length) return
+  await redis.eval(GIVE_BACK, keys.length, ...keys.map(throttleKey), clear.length)
+}

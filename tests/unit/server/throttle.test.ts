@@ -1,50 +1,88 @@
 import RedisMock from 'ioredis-mock'
 import type { Redis } from 'ioredis'
 import { beforeEach, describe, expect, it } from 'vitest'
-import { createThrottle } from '../../../server/domain/accounts/throttle'
+import { giveBackAttempt, takeAttempt, throttleKey, type ThrottleRule } from '../../../server/domain/accounts/throttle'
 
-describe('failure throttle', () => {
+// ioredis-mock runs the Lua scripts (through fengari), so the counting logic is checked here;
+// tests/integration/throttle.test.ts checks the same against the real Redis and the app.
+describe('attempt throttle', () => {
   let redis: Redis
   beforeEach(async () => {
     redis = new RedisMock() as unknown as Redis
     await redis.flushall()
   })
+  const rule = (prefix: string, limit: number, windowSeconds = 600): ThrottleRule => ({ prefix, limit, windowSeconds })
 
-  it('locks a key once the limit of failures is reached, with a retry time', async () => {
-    const t = createThrottle(redis, { prefix: 't', limit: 3, windowSeconds: 600 })
-    expect(await t.check('a@x.test')).toEqual({ blocked: false, retryAfterSeconds: 0 })
-    await t.fail('a@x.test')
-    await t.fail('a@x.test')
-    expect((await t.check('a@x.test')).blocked).toBe(false)
-    const third = await t.fail('a@x.test')
-    expect(third.blocked).toBe(true)
-    const state = await t.check('a@x.test')
-    expect(state.blocked).toBe(true)
-    expect(state.retryAfterSeconds).toBeGreaterThan(590)
-    expect(state.retryAfterSeconds).toBeLessThanOrEqual(600)
+  it('lets `limit` attempts through, then refuses with the time left in the window', async () => {
+    const r = rule('t', 3)
+    for (let i = 0; i < 3; i++) expect((await takeAttempt(redis, [{ rule: r, id: 'a@x.test' }])).allowed).toBe(true)
+    const refused = await takeAttempt(redis, [{ rule: r, id: 'a@x.test' }])
+    expect(refused.allowed).toBe(false)
+    expect(refused.retryAfterSeconds).toBeGreaterThan(590)
+    expect(refused.retryAfterSeconds).toBeLessThanOrEqual(600)
+    // A refused attempt is not counted.
+    expect(await redis.get('t:a@x.test')).toBe('3')
   })
 
-  it('keeps keys apart, ignores case and clears on reset', async () => {
-    const t = createThrottle(redis, { prefix: 't', limit: 1, windowSeconds: 60 })
-    await t.fail('A@X.test')
-    expect((await t.check('a@x.test')).blocked).toBe(true)
-    expect((await t.check('b@x.test')).blocked).toBe(false)
-    await t.reset('a@x.test')
-    expect((await t.check('a@x.test')).blocked).toBe(false)
+  it('counts before anything is checked: concurrent attempts cannot overshoot the limit', async () => {
+    const r = rule('t', 5)
+    const verdicts = await Promise.all(Array.from({ length: 25 }, () => takeAttempt(redis, [{ rule: r, id: 'k' }])))
+    expect(verdicts.filter(v => v.allowed)).toHaveLength(5)
+    expect(await redis.get('t:k')).toBe('5')
   })
 
-  it('sets the window only on the first failure (fixed window)', async () => {
-    const t = createThrottle(redis, { prefix: 't', limit: 10, windowSeconds: 100 })
-    await t.fail('k')
+  it('counts on every key or on none', async () => {
+    const pair = rule('pair', 2)
+    const address = rule('addr', 10)
+    const keys = [{ rule: pair, id: '10.0.0.1|a@x.test' }, { rule: address, id: '10.0.0.1' }]
+    await takeAttempt(redis, keys)
+    await takeAttempt(redis, keys)
+    const refused = await takeAttempt(redis, keys)
+    expect(refused.allowed).toBe(false)
+    expect(await redis.get('addr:10.0.0.1')).toBe('2')
+    // Another account from the same address still goes through, and counts on the address.
+    expect((await takeAttempt(redis, [{ rule: pair, id: '10.0.0.1|b@x.test' }, { rule: address, id: '10.0.0.1' }])).allowed).toBe(true)
+    expect(await redis.get('addr:10.0.0.1')).toBe('3')
+  })
+
+  it('keeps keys apart and ignores case', async () => {
+    const r = rule('t', 1)
+    await takeAttempt(redis, [{ rule: r, id: 'A@X.test' }])
+    expect((await takeAttempt(redis, [{ rule: r, id: 'a@x.test' }])).allowed).toBe(false)
+    expect((await takeAttempt(redis, [{ rule: r, id: 'b@x.test' }])).allowed).toBe(true)
+    expect((await takeAttempt(redis, [{ rule: rule('other', 1), id: 'a@x.test' }])).allowed).toBe(true)
+  })
+
+  it('sets the window on the first attempt only (fixed window)', async () => {
+    const r = rule('t', 10, 100)
+    await takeAttempt(redis, [{ rule: r, id: 'k' }])
     await redis.expire('t:k', 5)
-    await t.fail('k')
+    await takeAttempt(redis, [{ rule: r, id: 'k' }])
     expect(await redis.ttl('t:k')).toBeLessThanOrEqual(5)
   })
 
-  it('separates rules by prefix', async () => {
-    const account = createThrottle(redis, { prefix: 'acct', limit: 1, windowSeconds: 60 })
-    const address = createThrottle(redis, { prefix: 'addr', limit: 1, windowSeconds: 60 })
-    await account.fail('same')
-    expect((await address.check('same')).blocked).toBe(false)
+  it('gives a counter left without expiry its window instead of locking it for ever', async () => {
+    const r = rule('t', 2, 100)
+    await redis.set('t:k', '7')
+    const refused = await takeAttempt(redis, [{ rule: r, id: 'k' }])
+    expect(refused.allowed).toBe(false)
+    expect(refused.retryAfterSeconds).toBe(100)
+    expect(await redis.ttl('t:k')).toBeGreaterThan(90)
+    await redis.set('t:j', '0')
+    await takeAttempt(redis, [{ rule: r, id: 'j' }])
+    expect(await redis.ttl('t:j')).toBeGreaterThan(90)
+  })
+
+  it('after a success clears some counters and takes the attempt back from the others', async () => {
+    const pair = { rule: rule('pair', 5), id: 'p' }
+    const address = { rule: rule('addr', 30), id: 'a' }
+    const fresh = { rule: rule('acct', 30), id: 'never-counted' }
+    for (let i = 0; i < 3; i++) await takeAttempt(redis, [pair, address])
+    await redis.expire(throttleKey(address), 50)
+    await giveBackAttempt(redis, [pair], [address, fresh])
+    expect(await redis.exists(throttleKey(pair))).toBe(0)
+    expect(await redis.get(throttleKey(address))).toBe('2')
+    expect(await redis.ttl(throttleKey(address))).toBeLessThanOrEqual(50)
+    expect(await redis.exists(throttleKey(fresh))).toBe(0)
   })
 })

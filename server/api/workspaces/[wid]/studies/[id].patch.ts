@@ -9,7 +9,7 @@ import { fail } from '../../../../domain/errors'
 export default defineEventHandler(async (event) => {
   const { user, workspace, study } = await requireStudy(event, 'analyst')
   const workspaceId = workspace.id
-  const changes = await readValid(event, studyPatchSchema)
+  const changes = await readValid(event, studyPatchSchema, { maxBytes: JSON_BODY_LIMITS.study })
   if (changes.revision !== undefined && changes.revision !== study.revision) {
     fail(409, `The study was saved by someone else meanwhile (revision ${study.revision}); reload it before saving`, { revision: study.revision })
   }

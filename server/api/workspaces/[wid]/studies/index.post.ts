@@ -6,7 +6,7 @@ import { audit } from '../../../../domain/audit'
 export default defineEventHandler(async (event) => {
   const { user, workspace } = await requireWorkspace(event, 'analyst')
   const workspaceId = workspace.id
-  const body = await readValid(event, studyCreateSchema)
+  const body = await readValid(event, studyCreateSchema, { maxBytes: JSON_BODY_LIMITS.study })
   const { spec } = await validateStudy(useDB(), workspaceId, body)
   const [study] = await useDB().transaction(async (tx) => {
     const rows = await tx.insert(t.studies).values({

@@ -4,7 +4,7 @@ import { validateStudy } from '../../../../domain/studies/studies'
 export default defineEventHandler(async (event) => {
   const { workspace } = await requireWorkspace(event, 'viewer')
   const workspaceId = workspace.id
-  const body = await readValid(event, studyDraftSchema)
+  const body = await readValid(event, studyDraftSchema, { maxBytes: JSON_BODY_LIMITS.study })
   const { spec } = await validateStudy(useDB(), workspaceId, body)
   return { ok: true, spec }
 })
