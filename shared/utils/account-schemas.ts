@@ -34,10 +34,17 @@ export const roleSchema = z.enum(['viewer', 'analyst', 'owner'], { error: 'Choos
 export const inviteSchema = z.object({ email: emailSchema, role: roleSchema })
 export const rolePatchSchema = z.object({ role: roleSchema })
 
-/** Zod issues as { field: first message }, the shape the forms show beside each input. */
+/**
+ * Zod issues as { field: first message }, the shape the forms show beside each input. A field
+ * the schema does not know is named by itself ("Unknown field colour").
+ */
 export function fieldErrors(error: z.ZodError): Record<string, string> {
   const out: Record<string, string> = {}
   for (const issue of error.issues) {
+    if (issue.code === 'unrecognized_keys') {
+      for (const key of issue.keys) out[[...issue.path, key].join('.')] ??= `Unknown field ${key}`
+      continue
+    }
     const key = issue.path.length ? issue.path.join('.') : '_'
     out[key] ??= issue.message
   }
