@@ -7,6 +7,7 @@ import fc from 'fast-check'
 import { afterAll, beforeAll, describe, it } from 'vitest'
 import { SEED, refused, setUpTarget, tally, tallyLine, type Attempt, type Target } from './harness'
 import { accountBodies, workspaceBodies } from './cases/accounts'
+import { wholeBodies } from './cases/bodies'
 import { measurementForms, measurementJson } from './cases/measurements'
 import { pathIds, queryParameters } from './cases/queries'
 import { setBuilds, setRenames, setUploads } from './cases/sets'
@@ -28,19 +29,20 @@ const fuzz = (arbitrary: (t: Target) => fc.Arbitrary<Attempt>, runs: number) => 
   fc.assert(fc.asyncProperty(arbitrary(target), attempt => refused(target, attempt)), { seed: SEED, numRuns: runs })
 
 const ENTRY_PATHS: Array<[string, (t: Target) => fc.Arbitrary<Attempt>, number]> = [
-  ['set upload (multipart: file bytes, names, file names)', setUploads, 40],
-  ['set rename', setRenames, 15],
-  ['set build from a fit (JSON documents)', setBuilds, 35],
-  ['study create', studyCreates, 30],
-  ['study patch', studyPatches, 20],
-  ['study validate', studyValidations, 20],
-  ['user-kernel expressions', userKernels, 40],
-  ['measurement CSV as JSON', measurementJson, 25],
-  ['measurement CSV as multipart', measurementForms, 20],
-  ['query parameters of the GET routes', queryParameters, 50],
-  ['ids in route paths', pathIds, 30],
-  ['account bodies', accountBodies, 45],
-  ['workspace, member, review and run bodies', workspaceBodies, 25]
+  ['set upload (multipart: file bytes, names, file names)', setUploads, 50],
+  ['set rename', setRenames, 20],
+  ['set build from a fit (JSON documents)', setBuilds, 50],
+  ['study create', studyCreates, 50],
+  ['study patch', studyPatches, 30],
+  ['study validate', studyValidations, 30],
+  ['user-kernel expressions', userKernels, 50],
+  ['measurement CSV as JSON', measurementJson, 40],
+  ['measurement CSV as multipart', measurementForms, 30],
+  ['query parameters of the GET routes', queryParameters, 60],
+  ['ids in route paths', pathIds, 40],
+  ['account bodies', accountBodies, 60],
+  ['workspace, member, review and run bodies', workspaceBodies, 35],
+  ['whole bodies that are not the expected object', wholeBodies, 40]
 ]
 
 describe('every entry path refuses bad input with a located 4xx and changes nothing', () => {

@@ -70,7 +70,8 @@ const brokenFits: Array<[string, (d: Record<string, any>) => void, string]> = [
   ['the flavour number', (d) => { d.scheme.nf = 7 }, 'scheme'],
   ['the grid', (d) => { d.grid.x.count = -5 }, 'grid'],
   ['a piece reference', (d) => { d.sumRules.momentum = 'nowhere' }, 'sumRules'],
-  ['an unknown parameter', (d) => { d.pieces[0].terms[0].a = 'not_a_parameter' }, 'pieces']
+  ['an unknown parameter', (d) => { d.pieces[0].terms[0].a = 'not_a_parameter' }, 'pieces'],
+  ['a name too long for a set', (d) => { d.name = 'n'.repeat(5000) }, 'input.name']
 ]
 
 export function setBuilds(t: Target): fc.Arbitrary<Attempt> {
