@@ -56,3 +56,31 @@ export function engineRejection(err: unknown, what: string) {
   }
   return err
 }
+
+/** The SQLSTATE of a database error: node-postgres sets `code`, drizzle wraps that error in `cause`. */
+export function sqlState(err: unknown): { code?: string, constraint?: string } {
+  for (let e: unknown = err, i = 0; e instanceof Error && i < 4; e = e.cause, i++) {
+    const { code, constraint } = e as Error & { code?: unknown, constraint?: unknown }
+    if (typeof code === 'string' && /^[0-9A-Z]{5}$/.test(code)) return { code, constraint: typeof constraint === 'string' ? constraint : undefined }
+  }
+  return {}
+}
+
+/** SQLSTATE of a unique violation. */
+export const UNIQUE_VIOLATION = '23505'
+
+/**
+ * Runs `write` (an insert or update, or a transaction holding one); when it breaks the unique
+ * constraint `constraint` (SQLSTATE 23505) — another request took the same name a moment
+ * earlier — throws a 409 with `message` and `data` instead. Every other error, and a unique
+ * violation of another constraint (a bug, not a race), passes unchanged.
+ */
+export async function conflictOnUnique<T>(constraint: string, write: () => Promise<T>, message: string, data?: ErrorData): Promise<T> {
+  try {
+    return await write()
+  } catch (err) {
+    const state = sqlState(err)
+    if (state.code === UNIQUE_VIOLATION && state.constraint === constraint) throw new DomainError(409, message, data)
+    throw err
+  }
+}

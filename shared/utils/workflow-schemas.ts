@@ -1,8 +1,33 @@
 // Request bodies and queries of the workflow routes (zod). The study's spec itself is checked by
-// the engine (checkStudySpec), which locates problems by bin and column.
+// the engine (checkStudySpec), which locates problems by bin and column. Every string is a
+// storableString and every free JSON document a storableJson (see storable.ts); every name,
+// label, comment and description has a length cap.
 import { z } from 'zod'
 import { PRESCRIPTIONS } from '../physics/uncertainty/bands'
 import { GridSpecSchema, MembersSpecSchema } from '../physics/input/schema'
+import { storableJson, storableString } from './storable'
+
+/**
+ * Longest set name, as the set-file header allows (shared/physics/sets/header.ts): with the
+ * version (at most 100) the unique (workspace, name, version) index entry stays under 1.3 KB,
+ * well below PostgreSQL's B-tree limit of about 2.7 KB.
+ */
+export const SET_NAME_MAX = 200
+/** Longest stored file name of an uploaded set. */
+export const SET_FILE_NAME_MAX = 255
+
+/** A set name typed by a person (upload, rename, build). */
+export const setNameSchema = storableString({ error: 'Give the set a name' }).trim()
+  .min(1, 'The name cannot be empty').max(SET_NAME_MAX, `Keep the name under ${SET_NAME_MAX} characters`)
+
+/** Body of PATCH …/sets/[sid]: rename. */
+export const setRenameSchema = z.object({ name: setNameSchema }).strict()
+
+/** The text parts of a set upload (multipart): the optional name and the file's own name. */
+export const setUploadFieldsSchema = z.object({
+  name: setNameSchema.optional(),
+  fileName: storableString().max(SET_FILE_NAME_MAX, `Keep the file name under ${SET_FILE_NAME_MAX} characters`)
+})
 
 const clPercent = z.number({ error: 'The confidence level is a number of percent' })
   .gt(0, 'The confidence level must be above 0%').lt(100, 'The confidence level must be below 100%')
@@ -15,10 +40,10 @@ const setIdList = z.array(z.uuid({ error: 'Each set id must be a uuid' })).max(2
   .refine(ids => new Set(ids).size === ids.length, 'A set appears twice in setIds')
 
 export const studyCreateSchema = z.object({
-  name: z.string({ error: 'Give the study a name' }).trim().min(1, 'Give the study a name').max(200, 'Keep the name under 200 characters'),
-  description: z.string().max(5000, 'Keep the description under 5000 characters').default(''),
+  name: storableString({ error: 'Give the study a name' }).trim().min(1, 'Give the study a name').max(200, 'Keep the name under 200 characters'),
+  description: storableString().max(5000, 'Keep the description under 5000 characters').default(''),
   /** The engine's StudySpec (kernel, options, bins …), checked by the engine. */
-  spec: z.unknown().refine(v => v !== undefined, 'Give the study spec (kernel, options and bins)'),
+  spec: storableJson().refine(v => v !== undefined, 'Give the study spec (kernel, options and bins)'),
   setIds: setIdList.default([]),
   secondSetId: z.uuid({ error: 'secondSetId must be a uuid' }).nullable().default(null),
   prescription: prescriptionChoice.default('auto'),
@@ -29,8 +54,8 @@ export type StudyCreate = z.infer<typeof studyCreateSchema>
 /** A PATCH changes any subset of the fields; `revision` guards against overwriting a newer save. */
 export const studyPatchSchema = z.object({
   name: studyCreateSchema.shape.name.optional(),
-  description: z.string().max(5000).optional(),
-  spec: z.unknown().optional(),
+  description: storableString().max(5000, 'Keep the description under 5000 characters').optional(),
+  spec: storableJson().optional(),
   setIds: setIdList.optional(),
   secondSetId: z.uuid().nullable().optional(),
   prescription: prescriptionChoice.optional(),
@@ -40,7 +65,7 @@ export const studyPatchSchema = z.object({
 
 /** Body of POST …/studies/validate: a draft to check without saving. */
 export const studyDraftSchema = z.object({
-  spec: z.unknown(),
+  spec: storableJson(),
   setIds: setIdList.default([]),
   secondSetId: z.uuid().nullable().default(null)
 }).strict()
@@ -66,17 +91,17 @@ export const contributionsQuerySchema = z.object({
 })
 
 export const reviewCommentSchema = z.object({
-  comment: z.string().trim().max(4000, 'Keep the comment under 4000 characters').default('')
+  comment: storableString().trim().max(4000, 'Keep the comment under 4000 characters').default('')
 }).strict()
 
 export const returnCommentSchema = z.object({
-  comment: z.string({ error: 'Say what needs to change' }).trim().min(1, 'Say what needs to change').max(4000, 'Keep the comment under 4000 characters')
+  comment: storableString({ error: 'Say what needs to change' }).trim().min(1, 'Say what needs to change').max(4000, 'Keep the comment under 4000 characters')
 }).strict()
 
 /** Query of a set's densities at one Q². */
 export const densitiesQuerySchema = z.object({
   q2: z.coerce.number({ error: 'q2 is a number of GeV²' }).positive('Q² must be positive'),
-  flavours: z.string().default('21,2,1,-2,-1,3')
+  flavours: storableString().default('21,2,1,-2,-1,3')
     .transform((s, ctx) => {
       const list = s.split(',').map(v => v.trim()).filter(Boolean)
       const bad = list.filter(v => !/^(-?[1-6]|21|22|uv|dv)$/.test(v))
@@ -98,11 +123,11 @@ export const sumRulesQuerySchema = z.object({
 /** Body of POST …/sets/builds: build an error set from a parametrised fit. */
 export const setBuildSchema = z.object({
   /** Name of the set to create; default the input document's name. */
-  name: z.string().trim().min(1).max(120).optional(),
+  name: setNameSchema.optional(),
   /** The parametrised input (or nuclear modification) document, as JSON. */
-  input: z.unknown().refine(v => v !== undefined, 'Give the parametrised input document'),
+  input: storableJson().refine(v => v !== undefined, 'Give the parametrised input document'),
   /** For a nuclear modification: its baseline parametrised input. */
-  baseline: z.unknown().optional(),
+  baseline: storableJson().optional(),
   /** Hessian (tolerance) or replicas (count, seed); overrides the document's `members`. */
   members: MembersSpecSchema.optional(),
   /** Output grid; overrides the document's `grid`. */
@@ -111,7 +136,7 @@ export const setBuildSchema = z.object({
 
 /** Comparison of several sets' latest results of one study. */
 export const comparisonQuerySchema = z.object({
-  setIds: z.string().optional().transform(s => (s ? s.split(',').map(v => v.trim()).filter(Boolean) : undefined))
+  setIds: storableString().optional().transform(s => (s ? s.split(',').map(v => v.trim()).filter(Boolean) : undefined))
     .pipe(z.array(z.uuid({ error: 'setIds is a comma-separated list of set ids' })).optional()),
   cl: bandsQuerySchema.shape.cl,
   /** Default: 100, or fewer when a replica set has fewer replicas. */
@@ -120,11 +145,11 @@ export const comparisonQuerySchema = z.object({
 })
 
 export const measurementJsonSchema = z.object({
-  name: z.string({ error: 'Give the measurement a name' }).trim().min(1, 'Give the measurement a name').max(200),
+  name: storableString({ error: 'Give the measurement a name' }).trim().min(1, 'Give the measurement a name').max(200, 'Keep the name under 200 characters'),
   /** The points CSV text. */
-  csv: z.string({ error: 'Give the points as CSV text' }).min(1, 'The CSV is empty'),
+  csv: storableString({ error: 'Give the points as CSV text' }).min(1, 'The CSV is empty'),
   /** Optional N × N correlation matrix: CSV text, JSON text, or an array of rows. */
-  correlation: z.union([z.string(), z.array(z.array(z.number()))]).optional(),
+  correlation: z.union([storableString(), z.array(z.array(z.number({ error: 'Each correlation is a finite number' })))], { error: 'The correlation matrix is CSV or JSON text, or an array of rows of numbers' }).optional(),
   correlationOf: z.enum(['syst', 'total']).default('total')
 }).strict()
 

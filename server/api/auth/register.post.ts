@@ -15,8 +15,9 @@ export default defineEventHandler(async (event) => {
     if (!row) {
       fail(409, 'An account with this e-mail already exists', { fields: { email: 'Already registered: sign in or reset the password' } })
     }
-    await sendVerificationMail(tx, useSettings(), row)
     await audit(tx, { actorId: row.id, action: 'user.registered', subjectType: 'user', subjectId: row.id })
+    // Last, so that nothing after the mail can roll the account back.
+    await sendVerificationMail(tx, useSettings(), row)
     return row
   })
   setResponseStatus(event, 201)

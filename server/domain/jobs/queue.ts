@@ -4,13 +4,19 @@ import type { Queue } from 'bullmq'
 import { and, eq, inArray } from 'drizzle-orm'
 import type { DB } from '../../database/client'
 import { workflowJobOptions } from '../../../shared/queue/workflow'
+import { audit, type AuditEntry } from '../audit'
 import { fail } from '../errors'
 import { asResults, type QueuedTable } from './lifecycle'
 
 /** A BullMQ producer by queue name, created once per process by the caller. */
 export type QueueSource = (name: string) => Queue
 
-/** Queues `payload` with the row id as the BullMQ job id; on a queue failure marks the row failed and answers 503. */
+/**
+ * Queues `payload` with the row id as the BullMQ job id. Call it after the transaction that
+ * inserted the row has committed (a worker may pick the job up at once). On a queue failure the
+ * row is marked failed with the reason (it stays, as the record of a request that could not be
+ * queued, beside its audit event) and the request answers 503.
+ */
 export async function enqueueRow(db: DB, queues: QueueSource, table: QueuedTable, queue: string, id: string, payload: Record<string, unknown>) {
   const rows = asResults(table)
   try {
@@ -26,13 +32,17 @@ export async function enqueueRow(db: DB, queues: QueueSource, table: QueuedTable
 /**
  * Cancels a queued or running row: a waiting job is removed and the row marked cancelled at once;
  * a running one gets the cancel flag, which the worker reads between chunks. 409 once it has ended.
+ * The flag and the audit event `event` are written in one transaction.
  */
-export async function cancelRow(db: DB, queues: QueueSource, table: QueuedTable, queue: string, row: { id: string, state: string }, what: string) {
+export async function cancelRow(db: DB, queues: QueueSource, table: QueuedTable, queue: string, row: { id: string, state: string }, what: string, event?: AuditEntry) {
   if (row.state !== 'queued' && row.state !== 'running') {
     fail(409, `This ${what} has already ${row.state === 'done' ? 'finished' : row.state === 'failed' ? 'failed' : 'been cancelled'}`)
   }
   const rows = asResults(table)
-  await db.update(rows).set({ cancelRequested: true }).where(eq(rows.id, row.id))
+  await db.transaction(async (tx) => {
+    await tx.update(rows).set({ cancelRequested: true }).where(eq(rows.id, row.id))
+    if (event) await audit(tx, event)
+  })
   const stopNow = await removeWaitingJob(queues(queue), row.id)
   if (stopNow.length) {
     await db.update(rows).set({ state: 'cancelled', finishedAt: new Date() }).where(and(eq(rows.id, row.id), inArray(rows.state, stopNow)))

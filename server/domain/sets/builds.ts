@@ -56,19 +56,28 @@ export function withOverrides(input: unknown, members: unknown, grid: unknown) {
   return { ...input, ...(members !== undefined ? { members } : {}), ...(grid !== undefined ? { grid } : {}) }
 }
 
-/** Inserts the build row and queues the build-set job (id = row id); 503 without a queue. */
+/**
+ * Inserts the build row with its audit event in one transaction, then (committed) queues the
+ * build-set job (id = row id). A failure before the commit leaves no row and no job; a queue
+ * failure after it marks the row failed and answers 503 (enqueueRow).
+ */
 export async function startSetBuild(db: DB, queues: QueueSource, workspaceId: string, userId: string, name: string, request: SetBuildRequest) {
-  const [row] = await db.insert(t.setBuilds).values({ workspaceId, name, request, requestedBy: userId }).returning()
-  const payload: BuildSetPayload = { buildId: row!.id }
-  await enqueueRow(db, queues, t.setBuilds, BUILD_SET_QUEUE, row!.id, payload)
-  await audit(db, { workspaceId, actorId: userId, action: 'set.build-queued', subjectType: 'set_build', subjectId: row!.id, detail: { name } })
-  const [queued] = await db.select().from(t.setBuilds).where(eq(t.setBuilds.id, row!.id))
+  const row = await db.transaction(async (tx) => {
+    const [inserted] = await tx.insert(t.setBuilds).values({ workspaceId, name, request, requestedBy: userId }).returning()
+    await audit(tx, { workspaceId, actorId: userId, action: 'set.build-queued', subjectType: 'set_build', subjectId: inserted!.id, detail: { name } })
+    return inserted!
+  })
+  const payload: BuildSetPayload = { buildId: row.id }
+  await enqueueRow(db, queues, t.setBuilds, BUILD_SET_QUEUE, row.id, payload)
+  const [queued] = await db.select().from(t.setBuilds).where(eq(t.setBuilds.id, row.id))
   return queued!
 }
 
-/** Cancels a queued or running build (cancelRow); the row as it is now. */
-export async function cancelSetBuild(db: DB, queues: QueueSource, b: SetBuild) {
-  await cancelRow(db, queues, t.setBuilds, BUILD_SET_QUEUE, b, 'build')
+/** Cancels a queued or running build (cancelRow, with its audit event); the row as it is now. */
+export async function cancelSetBuild(db: DB, queues: QueueSource, b: SetBuild, actorId: string) {
+  await cancelRow(db, queues, t.setBuilds, BUILD_SET_QUEUE, b, 'build', {
+    workspaceId: b.workspaceId, actorId, action: 'set.build-cancel-requested', subjectType: 'set_build', subjectId: b.id, detail: { state: b.state }
+  })
   const [row] = await db.select().from(t.setBuilds).where(eq(t.setBuilds.id, b.id))
   return row!
 }

@@ -2,7 +2,9 @@ import { and, asc, count, desc, eq, getTableColumns, inArray, or } from 'drizzle
 import type { DB } from '../../database/client'
 import { tables as t } from '../../database/client'
 import type { ErrorSetRow } from '../../database/schema'
-import { fail } from '../errors'
+import { conflictOnUnique, fail } from '../errors'
+import { findJsonProblem } from '../../../shared/utils/storable'
+import { formatPath } from '../../../shared/physics/json-path'
 
 /** A set's row without its file. */
 export type SetRow = Omit<ErrorSetRow, 'content'>
@@ -47,13 +49,43 @@ export async function resultsUsingSet(db: DB, setId: string) {
   return row?.n ?? 0
 }
 
+/** The unique constraint on (workspace, name, version) of error_sets. */
+export const SET_NAME_UNIQUE = 'error_sets_workspace_id_name_version_unique'
+
+const nameTaken = (name: string, version: string) => ({
+  message: `A set named ${name} version ${version} is already in this workspace; choose another name`,
+  data: { fields: { name: `${name} version ${version} is already in this workspace` } }
+})
+
 /** 409 when a set with this name and version already exists in the workspace (other than `exceptId`). */
 export async function assertSetNameFree(db: DB, workspaceId: string, name: string, version: string, exceptId?: string) {
   const rows = await db.select({ id: t.errorSets.id }).from(t.errorSets)
     .where(and(eq(t.errorSets.workspaceId, workspaceId), eq(t.errorSets.name, name), eq(t.errorSets.version, version)))
   if (rows.some(r => r.id !== exceptId)) {
-    fail(409, `A set named ${name} version ${version} is already in this workspace; choose another name`)
+    const { message, data } = nameTaken(name, version)
+    fail(409, message, data)
   }
+}
+
+/**
+ * Runs `write`, which stores set name `name` with `version`; the same 409 as assertSetNameFree
+ * when a concurrent upload, build or rename took the name between that check and this write.
+ */
+export function whileSetNameFree<T>(name: string, version: string, write: () => Promise<T>): Promise<T> {
+  const { message, data } = nameTaken(name, version)
+  return conflictOnUnique(SET_NAME_UNIQUE, write, message, data)
+}
+
+/**
+ * 400 when the header of an uploaded set file holds text the database cannot store (a NUL, a
+ * lone surrogate) or a number beyond the double range, naming the header field.
+ */
+export function assertStorableHeader(header: unknown, fileName: string) {
+  const problem = findJsonProblem(header)
+  if (!problem) return
+  const path = ['set', ...problem.path]
+  const message = `header field ${formatPath(path)}: ${problem.message}`
+  fail(400, `${fileName || 'The file'} is not a valid set file: ${message}`, { issues: [{ message, path, file: fileName }] })
 }
 
 /** The sets `ids` of workspace `workspaceId` (without bytes), in the order given; 400 naming a missing one. */

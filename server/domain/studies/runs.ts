@@ -3,7 +3,7 @@ import type { DB } from '../../database/client'
 import { tables as t } from '../../database/client'
 import type { Result, Study } from '../../database/schema'
 import { RUN_STUDY_QUEUE, type RunStudyPayload } from '../../../shared/queue/workflow'
-import { fail } from '../errors'
+import { conflictOnUnique, fail } from '../errors'
 import { cancelRow, enqueueRow, type QueueSource } from '../jobs/queue'
 import { insertResultVersions } from '../results/versions'
 import { validateStudy } from './studies'
@@ -11,7 +11,11 @@ import { validateStudy } from './studies'
 /**
  * Makes one new result version per set of `setIds` (all in the study) and queues a job for each,
  * with the result id as the BullMQ job id. 400 for a set the study does not have, 409 when one
- * is already queued or running, 422 when a bin is out of a set's reach, 503 without a queue.
+ * is already queued or running (or another Run made the same version a moment earlier), 422 when
+ * a bin is out of a set's reach, 503 without a queue. The versions and their audit events are
+ * one transaction; the jobs are queued only after it has committed, so a refused or failed
+ * request queues nothing. If the queue fails, the versions not yet queued are marked failed
+ * (they stay, with their audit events, as the record of what was asked) and the answer is 503.
  */
 export async function startRuns(db: DB, queues: QueueSource, study: Study, setIds: readonly string[], userId: string): Promise<Result[]> {
   if (setIds.length === 0) {
@@ -28,9 +32,26 @@ export async function startRuns(db: DB, queues: QueueSource, study: Study, setId
     const names = active.map(a => `${sets.find(s => s.id === a.setId)?.name ?? a.setId} (version ${a.version})`)
     fail(409, `Already queued or running: ${names.join(', ')}; wait for it or cancel it first`)
   }
-  const created = await insertResultVersions(db, { study, spec, sets, second, userId })
-  for (const r of created) await enqueueRun(db, queues, r)
+  const created = await conflictOnUnique(RESULT_VERSION_UNIQUE, () => insertResultVersions(db, { study, spec, sets, second, userId }),
+    'Another run of this study started a moment ago; wait for it or cancel it first')
+  for (const [i, r] of created.entries()) {
+    try {
+      await enqueueRun(db, queues, r)
+    } catch (err) {
+      await markUnqueued(db, created.slice(i + 1))
+      throw err
+    }
+  }
   return created
+}
+
+const RESULT_VERSION_UNIQUE = 'results_study_id_set_id_version_unique'
+
+/** Marks result versions whose job was never queued (the queue failed before them) as failed. */
+async function markUnqueued(db: DB, rows: Result[]) {
+  if (!rows.length) return
+  await db.update(t.results).set({ state: 'failed', error: 'The job queue is unavailable', finishedAt: new Date() })
+    .where(inArray(t.results.id, rows.map(r => r.id)))
 }
 
 /** Puts a result on the run-study queue (503 without a queue). */
@@ -40,9 +61,11 @@ async function enqueueRun(db: DB, queues: QueueSource, r: Result) {
   r.jobId = r.id
 }
 
-/** Cancels a queued or running result (cancelRow); the row as it is now. */
-export async function cancelRun(db: DB, queues: QueueSource, r: Result) {
-  await cancelRow(db, queues, t.results, RUN_STUDY_QUEUE, r, 'result')
+/** Cancels a queued or running result (cancelRow, with its audit event); the row as it is now. */
+export async function cancelRun(db: DB, queues: QueueSource, r: Result, workspaceId: string, actorId: string) {
+  await cancelRow(db, queues, t.results, RUN_STUDY_QUEUE, r, 'result', {
+    workspaceId, actorId, action: 'result.cancel-requested', subjectType: 'result', subjectId: r.id, detail: { state: r.state }
+  })
   const [row] = await db.select().from(t.results).where(eq(t.results.id, r.id))
   return row!
 }

@@ -18,17 +18,36 @@ import { ALPHA_EM, GF_GEV2, HBARC2_PB_GEV2, MH_GEV, MW_GEV, MZ_GEV, PROTON_MASS_
  * (3) the instance is built from the dependencies of the parser and the whitelisted functions
  * only, and its import, createUnit, evaluate, parse, compile, simplify, derivative and resolve
  * are replaced by functions that throw (the mathjs "security" recipe). No eval/Function.
+ * Names are looked up as own entries of the tables only, so a word every JavaScript object
+ * inherits (constructor, toString, __proto__) is an unknown name like any other; every call is
+ * checked against its function's argument count before anything is evaluated.
  */
 
-/** Functions an expression may call (elementary functions of real arguments). */
-export const EXPRESSION_FUNCTIONS: readonly string[] = Object.freeze([
-  'sqrt', 'cbrt', 'exp', 'log', 'log10', 'log2', 'sin', 'cos', 'tan', 'asin', 'acos', 'atan',
-  'atan2', 'sinh', 'cosh', 'tanh', 'abs', 'pow', 'min', 'max'
+/**
+ * How many arguments each allowed function takes: [fewest, most]. log(x) is the natural
+ * logarithm, log(x, b) the logarithm to base b; min and max take one or more.
+ */
+const ARITY: ReadonlyMap<string, readonly [number, number]> = new Map([
+  ['sqrt', [1, 1]], ['cbrt', [1, 1]], ['exp', [1, 1]], ['log', [1, 2]], ['log10', [1, 1]], ['log2', [1, 1]],
+  ['sin', [1, 1]], ['cos', [1, 1]], ['tan', [1, 1]], ['asin', [1, 1]], ['acos', [1, 1]], ['atan', [1, 1]],
+  ['atan2', [2, 2]], ['sinh', [1, 1]], ['cosh', [1, 1]], ['tanh', [1, 1]], ['abs', [1, 1]], ['pow', [2, 2]],
+  ['min', [1, Infinity]], ['max', [1, Infinity]]
 ])
+
+/** Functions an expression may call (elementary functions of real arguments). */
+export const EXPRESSION_FUNCTIONS: readonly string[] = Object.freeze([...ARITY.keys()])
+
+/** "1 argument", "1 or 2 arguments", "at least 1 argument". */
+function expectedCount([fewest, most]: readonly [number, number]): string {
+  const unit = (n: number) => `${n} argument${n === 1 ? '' : 's'}`
+  if (most === Infinity) return `at least ${unit(fewest)}`
+  return fewest === most ? unit(fewest) : `${fewest} or ${unit(most)}`
+}
 
 /**
  * Named constants an expression may use, in natural units (GeV): pi, alpha (α(0)), GF (GeV⁻²),
  * MZ, MW, MH, mp (GeV), hbarc2 ((ħc)² in pb GeV², to turn GeV⁻² into pb). Values: constants.ts.
+ * Look names up with isConstant (own entries only), never with `in`.
  */
 export const EXPRESSION_CONSTANTS: Readonly<Record<string, number>> = Object.freeze({
   pi: Math.PI,
@@ -40,6 +59,9 @@ export const EXPRESSION_CONSTANTS: Readonly<Record<string, number>> = Object.fre
   mp: PROTON_MASS_GEV,
   hbarc2: HBARC2_PB_GEV2
 })
+
+/** Whether `name` is one of EXPRESSION_CONSTANTS (not a property every object inherits). */
+const isConstant = (name: string) => Object.hasOwn(EXPRESSION_CONSTANTS, name)
 
 /** A parse or evaluation failure of an expression, with the 1-based column where it was found. */
 export class ExpressionError extends RangeError {
@@ -112,9 +134,10 @@ function rejectCharacters(source: string): void {
   }
 }
 
-function scan(source: string, variables: ReadonlySet<string>): void {
+/** Checks the characters and names of `source`; the 1-based columns of its calls, by function name, in order. */
+function scan(source: string, variables: ReadonlySet<string>): Map<string, number[]> {
   rejectCharacters(source)
-  const functions = new Set(EXPRESSION_FUNCTIONS)
+  const calls = new Map<string, number[]>()
   const number = /^(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?/
   const name = /^[A-Za-z_][A-Za-z0-9_]*/
   let i = 0
@@ -130,10 +153,11 @@ function scan(source: string, variables: ReadonlySet<string>): void {
       const word = id[0]
       const after = source.slice(i + word.length).trimStart()
       if (after.startsWith('(')) {
-        if (!functions.has(word)) {
+        if (!ARITY.has(word)) {
           throw new ExpressionError(`"${word}" is not an allowed function; allowed: ${EXPRESSION_FUNCTIONS.join(', ')}`, i + 1)
         }
-      } else if (!variables.has(word) && !(word in EXPRESSION_CONSTANTS)) {
+        calls.set(word, [...calls.get(word) ?? [], i + 1])
+      } else if (!variables.has(word) && !isConstant(word)) {
         throw new ExpressionError(`unknown name "${word}"; allowed variables: ${[...variables].join(', ')}; constants: ${Object.keys(EXPRESSION_CONSTANTS).join(', ')}`, i + 1)
       }
       i += word.length
@@ -141,10 +165,16 @@ function scan(source: string, variables: ReadonlySet<string>): void {
     }
     i++
   }
+  return calls
 }
 
-function checkTree(root: MathNode, variables: ReadonlySet<string>): void {
-  const functions = new Set(EXPRESSION_FUNCTIONS)
+/**
+ * Checks every node of the parsed tree; `calls` (from scan) gives the column of each call for
+ * the argument-count message. The tree is walked depth first, left to right, which meets the
+ * calls of one function in the order their names appear in the text.
+ */
+function checkTree(root: MathNode, variables: ReadonlySet<string>, calls: ReadonlyMap<string, readonly number[]>): void {
+  const seen = new Map<string, number>()
   root.traverse((node: MathNode, _path: string, parent: MathNode | null) => {
     const n = node as MathNode & { op?: string, fn?: unknown, name?: string, value?: unknown, implicit?: boolean }
     switch (node.type) {
@@ -153,7 +183,7 @@ function checkTree(root: MathNode, variables: ReadonlySet<string>): void {
         return
       case 'SymbolNode': {
         const isCallee = parent?.type === 'FunctionNode' && (parent as unknown as { fn: MathNode }).fn === node
-        if (isCallee ? !functions.has(n.name!) : !(variables.has(n.name!) || n.name! in EXPRESSION_CONSTANTS)) {
+        if (isCallee ? !ARITY.has(n.name!) : !(variables.has(n.name!) || isConstant(n.name!))) {
           throw new ExpressionError(`name "${n.name}" is not allowed here`, 1)
         }
         return
@@ -165,7 +195,14 @@ function checkTree(root: MathNode, variables: ReadonlySet<string>): void {
         return
       case 'FunctionNode': {
         const fn = n.fn as MathNode & { name?: string }
-        if (fn.type !== 'SymbolNode' || !functions.has(fn.name!)) throw new ExpressionError('only calls of the allowed functions are allowed', 1)
+        const arity = fn.type === 'SymbolNode' ? ARITY.get(fn.name!) : undefined
+        if (!arity) throw new ExpressionError('only calls of the allowed functions are allowed', 1)
+        const k = seen.get(fn.name!) ?? 0
+        seen.set(fn.name!, k + 1)
+        const count = (node as MathNode & { args: MathNode[] }).args.length
+        if (count < arity[0] || count > arity[1]) {
+          throw new ExpressionError(`${fn.name} takes ${expectedCount(arity)}, not ${count}`, calls.get(fn.name!)?.[k] ?? 1)
+        }
         return
       }
       default:
@@ -185,7 +222,7 @@ export function compileExpression(source: string, variables: readonly string[]):
   if (typeof source !== 'string' || source.trim() === '') throw new ExpressionError('the expression is empty', 1)
   if (source.length > 2000) throw new ExpressionError('the expression is longer than 2000 characters', 2001)
   const allowed = new Set(variables)
-  scan(source, allowed)
+  const calls = scan(source, allowed)
   let tree: MathNode
   try {
     tree = instance().parse(source)
@@ -193,7 +230,7 @@ export function compileExpression(source: string, variables: readonly string[]):
     const e = error as Error & { char?: number }
     throw new ExpressionError(`syntax error: ${e.message.replace(/\s*\(char \d+\)$/, '')}`, Math.max(1, Math.min(e.char ?? 1, source.length + 1)))
   }
-  checkTree(tree, allowed)
+  checkTree(tree, allowed, calls)
   const uses = new Set<string>()
   tree.traverse((node: MathNode, _p: string, parent: MathNode | null) => {
     const name = (node as MathNode & { name?: string }).name
@@ -211,7 +248,14 @@ export function compileExpression(source: string, variables: readonly string[]):
       for (const u of uses) {
         if (scope[u] === undefined) throw new RangeError(`the expression uses ${u}, which is not defined for this kernel's options`)
       }
-      const result: unknown = code.evaluate(scope)
+      let result: unknown
+      try {
+        result = code.evaluate(scope)
+      } catch (error) {
+        // The checks above leave only arithmetic on numbers; should mathjs still refuse, say so
+        // as bad input rather than as a crash.
+        throw new RangeError(`the expression "${source}" cannot be evaluated: ${(error as Error).message}`)
+      }
       if (typeof result !== 'number' || !Number.isFinite(result)) {
         throw new RangeError(`the expression "${source}" gives ${String(result)} at ${variables.filter(v => values[v] !== undefined).map(v => `${v} = ${values[v]}`).join(', ')}; it must be a finite real number`)
       }

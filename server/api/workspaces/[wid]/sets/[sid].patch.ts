@@ -1,21 +1,23 @@
 import { eq } from 'drizzle-orm'
-import { z } from 'zod'
 import { tables as t } from '../../../../database/client'
-import { assertSetNameFree, publicSet, setColumns, userBrief } from '../../../../domain/sets/library'
+import { assertSetNameFree, publicSet, setColumns, userBrief, whileSetNameFree } from '../../../../domain/sets/library'
 import { audit } from '../../../../domain/audit'
+import { fail } from '../../../../domain/errors'
 
-const SetPatch = z.object({
-  name: z.string({ error: 'Give the new name' }).trim().min(1, 'The name cannot be empty').max(120, 'Keep the name under 120 characters')
-}).strict()
-
-// Rename an error set (analysts). The name and version stay unique in the workspace.
+// Rename an error set (analysts). The name and version stay unique in the workspace: a rename
+// racing another for the same name answers 409. The new name and its audit event are written
+// together or not at all.
 export default defineEventHandler(async (event) => {
   const { user, workspace, set } = await requireSet(event, 'analyst')
   const workspaceId = workspace.id
-  const { name } = await readValid(event, SetPatch)
+  const { name } = await readValid(event, setRenameSchema)
   await assertSetNameFree(useDB(), workspaceId, name, set.version, set.id)
-  const [row] = await useDB().update(t.errorSets).set({ name }).where(eq(t.errorSets.id, set.id)).returning(setColumns)
-  await audit(useDB(), { workspaceId, actorId: user.id, action: 'set.renamed', subjectType: 'error_set', subjectId: set.id, detail: { from: set.name, to: name } })
-  const addedBy = await userBrief(useDB(), row!.addedBy)
-  return publicSet(row!, addedBy && { id: addedBy.id, name: addedBy.name })
+  const row = await whileSetNameFree(name, set.version, () => useDB().transaction(async (tx) => {
+    const [renamed] = await tx.update(t.errorSets).set({ name }).where(eq(t.errorSets.id, set.id)).returning(setColumns)
+    if (!renamed) fail(404, 'Error set not found')
+    await audit(tx, { workspaceId, actorId: user.id, action: 'set.renamed', subjectType: 'error_set', subjectId: set.id, detail: { from: set.name, to: name } })
+    return renamed
+  }))
+  const addedBy = await userBrief(useDB(), row.addedBy)
+  return publicSet(row, addedBy && { id: addedBy.id, name: addedBy.name })
 })

@@ -20,9 +20,13 @@ export default defineEventHandler(async (event) => {
   }
   const { spec } = await validateStudy(useDB(), workspaceId, merged)
   const { revision: _revision, ...fields } = changes
-  const [row] = await useDB().update(t.studies)
-    .set({ ...fields, ...merged, spec, revision: sql`${t.studies.revision} + 1` })
-    .where(eq(t.studies.id, study.id)).returning()
-  await audit(useDB(), { workspaceId, actorId: user.id, action: 'study.edited', subjectType: 'study', subjectId: study.id, detail: { revision: row!.revision, fields: Object.keys(fields) } })
-  return publicStudy(row!)
+  const row = await useDB().transaction(async (tx) => {
+    const [saved] = await tx.update(t.studies)
+      .set({ ...fields, ...merged, spec, revision: sql`${t.studies.revision} + 1` })
+      .where(eq(t.studies.id, study.id)).returning()
+    if (!saved) fail(404, 'Study not found')
+    await audit(tx, { workspaceId, actorId: user.id, action: 'study.edited', subjectType: 'study', subjectId: study.id, detail: { revision: saved.revision, fields: Object.keys(fields) } })
+    return saved
+  })
+  return publicStudy(row)
 })

@@ -1,11 +1,7 @@
 import { publicResult } from '../../../../../domain/studies/studies'
 import { cancelRun } from '../../../../../domain/studies/runs'
-import { audit } from '../../../../../domain/audit'
-// Cancel a queued or running result (analysts).
+// Cancel a queued or running result (analysts); the request and its audit event are one write.
 export default defineEventHandler(async (event) => {
   const { user, workspace, result } = await requireResult(event, 'analyst')
-  const workspaceId = workspace.id
-  const row = await cancelRun(useDB(), useQueue, result)
-  await audit(useDB(), { workspaceId, actorId: user.id, action: 'result.cancel-requested', subjectType: 'result', subjectId: result.id, detail: { state: row.state } })
-  return publicResult(row)
+  return publicResult(await cancelRun(useDB(), useQueue, result, workspace.id, user.id))
 })

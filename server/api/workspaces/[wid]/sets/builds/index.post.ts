@@ -1,4 +1,5 @@
 import { checkBuildRequest, publicSetBuild, startSetBuild } from '../../../../../domain/sets/builds'
+import { fail } from '../../../../../domain/errors'
 // Build an error set from a parametrised fit (analysts): the input document is checked now
 // (400 with data.issues naming each JSON path), the build runs on the queue.
 export default defineEventHandler(async (event) => {
@@ -6,7 +7,14 @@ export default defineEventHandler(async (event) => {
   const workspaceId = workspace.id
   const body = await readValid(event, setBuildSchema)
   const { name, request } = checkBuildRequest(body)
-  const build = await startSetBuild(useDB(), useQueue, workspaceId, user.id, name, request)
+  // The document's own name becomes the set's name when the request gives none: it must fit
+  // the set library as a typed name would.
+  const named = setNameSchema.safeParse(name)
+  if (!named.success) {
+    const message = named.error.issues[0]!.message
+    fail(400, `The set to build needs another name: ${message}`, { fields: { [body.name === undefined ? 'input.name' : 'name']: message } })
+  }
+  const build = await startSetBuild(useDB(), useQueue, workspaceId, user.id, named.data, request)
   setResponseStatus(event, 202)
   return publicSetBuild(build)
 })

@@ -1,6 +1,6 @@
 import { cancelSetBuild, publicSetBuild } from '../../../../../../domain/sets/builds'
-// Cancel a queued or running set build (analysts).
+// Cancel a queued or running set build (analysts); the request and its audit event are one write.
 export default defineEventHandler(async (event) => {
-  const { build } = await requireSetBuild(event, 'analyst')
-  return publicSetBuild(await cancelSetBuild(useDB(), useQueue, build))
+  const { user, build } = await requireSetBuild(event, 'analyst')
+  return publicSetBuild(await cancelSetBuild(useDB(), useQueue, build, user.id))
 })
