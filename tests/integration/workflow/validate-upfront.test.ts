@@ -90,7 +90,7 @@ describe('a measurement the χ² could not use', () => {
   it('refuses a correlation matrix that is not positive definite, storing nothing', async () => {
     // Rows 1 and 2 correlated by 0.9 with row 3, but anti-correlated with each other by −0.9:
     // the leading 3 × 3 block has determinant 1 + 2·(−0.9)(0.9)(0.9) − 3·0.81 = −2.888 < 0.
-    const correlation = [[1, -0.9, 0.9, 0], [-0.9, 1, 0.9, 0], [0.9, 0.9, 1, 0], [0, 0, 0, 1]]
+    const correlation = '1,-0.9,0.9,0\n-0.9,1,0.9,0\n0.9,0.9,1,0\n0,0,0,1'
     const res = await ws.analyst.client.post(url, { name: 'npd', csv: 'value,stat,syst\n1,1,1\n1,1,1\n1,1,1\n1,1,1', correlation })
     expect(res.status).toBe(400)
     expect(res.body.data.issues[0]).toMatchObject({ file: 'correlation', line: 3, message: expect.stringMatching(/not positive definite/) })
