@@ -98,14 +98,18 @@ export const returnCommentSchema = z.object({
   comment: storableString({ error: 'Say what needs to change' }).trim().min(1, 'Say what needs to change').max(4000, 'Keep the comment under 4000 characters')
 }).strict()
 
-/** Query of a set's densities at one Q². */
+/** Most flavours one densities request may ask for (after duplicates are dropped). */
+export const DENSITIES_MAX_FLAVOURS = 13
+
+/** Query of a set's densities at one Q²: a flavour named twice is plotted once. */
 export const densitiesQuerySchema = z.object({
   q2: z.coerce.number({ error: 'q2 is a number of GeV²' }).positive('Q² must be positive'),
   flavours: storableString().default('21,2,1,-2,-1,3')
     .transform((s, ctx) => {
-      const list = s.split(',').map(v => v.trim()).filter(Boolean)
+      const list = [...new Set(s.split(',').map(v => v.trim()).filter(Boolean))]
       const bad = list.filter(v => !/^(-?[1-6]|21|22|uv|dv)$/.test(v))
-      if (bad.length) ctx.addIssue({ code: 'custom', message: `Unknown flavour ${bad.join(', ')}: use PDG codes (1..6, -1..-6, 21, 22) or uv, dv` })
+      if (bad.length) ctx.addIssue({ code: 'custom', message: `Unknown flavour ${bad.slice(0, 5).join(', ')}${bad.length > 5 ? ', …' : ''}: use PDG codes (1..6, -1..-6, 21, 22) or uv, dv` })
+      else if (list.length > DENSITIES_MAX_FLAVOURS) ctx.addIssue({ code: 'custom', message: `Ask for at most ${DENSITIES_MAX_FLAVOURS} flavours at once; got ${list.length} different ones` })
       return list.map(v => (v === 'uv' || v === 'dv' ? v : Number(v)))
     }),
   points: z.coerce.number().int().min(10).max(400).default(100),
@@ -136,8 +140,8 @@ export const setBuildSchema = z.object({
 
 /** Comparison of several sets' latest results of one study. */
 export const comparisonQuerySchema = z.object({
-  setIds: storableString().optional().transform(s => (s ? s.split(',').map(v => v.trim()).filter(Boolean) : undefined))
-    .pipe(z.array(z.uuid({ error: 'setIds is a comma-separated list of set ids' })).optional()),
+  setIds: storableString().optional().transform(s => (s ? [...new Set(s.split(',').map(v => v.trim()).filter(Boolean))] : undefined))
+    .pipe(z.array(z.uuid({ error: 'setIds is a comma-separated list of set ids' })).max(20, 'Compare at most 20 sets at once').optional()),
   cl: bandsQuerySchema.shape.cl,
   /** Default: 100, or fewer when a replica set has fewer replicas. */
   replicasPerSet: z.coerce.number().int().min(2).max(2000).optional(),

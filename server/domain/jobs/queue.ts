@@ -11,16 +11,21 @@ import { asResults, type QueuedTable } from './lifecycle'
 /** A BullMQ producer by queue name, created once per process by the caller. */
 export type QueueSource = (name: string) => Queue
 
+/** Per-job options: `priority` ≥ 1, lower runs first (BullMQ); none = first come, first served. */
+export interface EnqueueOptions {
+  priority?: number
+}
+
 /**
  * Queues `payload` with the row id as the BullMQ job id. Call it after the transaction that
  * inserted the row has committed (a worker may pick the job up at once). On a queue failure the
  * row is marked failed with the reason (it stays, as the record of a request that could not be
  * queued, beside its audit event) and the request answers 503.
  */
-export async function enqueueRow(db: DB, queues: QueueSource, table: QueuedTable, queue: string, id: string, payload: Record<string, unknown>) {
+export async function enqueueRow(db: DB, queues: QueueSource, table: QueuedTable, queue: string, id: string, payload: Record<string, unknown>, options: EnqueueOptions = {}) {
   const rows = asResults(table)
   try {
-    await queues(queue).add(queue, payload, { jobId: id, ...workflowJobOptions })
+    await queues(queue).add(queue, payload, { jobId: id, ...workflowJobOptions, ...(options.priority !== undefined ? { priority: options.priority } : {}) })
   } catch (err) {
     console.error('[queue]', (err as Error).message)
     await db.update(rows).set({ state: 'failed', error: 'The job queue is unavailable', finishedAt: new Date() }).where(eq(rows.id, id))

@@ -1,53 +1,94 @@
-import { eq } from 'drizzle-orm'
+import { eq, sql } from 'drizzle-orm'
 import type { DB } from '../../database/client'
 import { tables as t } from '../../database/client'
 import type { SetBuild } from '../../database/schema'
 import { audit } from '../audit'
 import { fail } from '../errors'
 import { cancelRow, enqueueRow, type QueueSource } from '../jobs/queue'
-import { InputError } from '../../../shared/physics/input/errors'
-import { compileInput } from '../../../shared/physics/input/model'
+import { formatBytes, formatCount, LIMITS, type Limits } from '../limits'
+import { InputError, onlyPhysics, type InputIssue } from '../../../shared/physics/input/errors'
+import { buildSize, memberIssues, type BuildSize } from '../../../shared/physics/input/feasibility'
+import { compileInput, type InputModel } from '../../../shared/physics/input/model'
 import { parseInputDocument } from '../../../shared/physics/input/parse'
 import { BUILD_SET_QUEUE, type BuildSetPayload, type SetBuildRequest } from '../../../shared/queue/workflow'
-
-/** What the API shows of a set build. */
-export const publicSetBuild = (b: SetBuild) => ({
-  id: b.id, name: b.name, state: b.state, progress: { done: b.progressDone, total: b.progressTotal },
-  error: b.error, setId: b.setId, requestedBy: b.requestedBy, createdAt: b.createdAt,
-  startedAt: b.startedAt, finishedAt: b.finishedAt, cancelRequested: b.cancelRequested
-})
+import { assertQuota } from './store'
 
 /**
- * Checks a build request with the engine's input parser (every problem with its JSON path, 400
- * data.issues), the members and grid overrides applied first; returns the set name to use.
+ * What the API shows of a set build. `queuePlace` (1 = next to start) while it waits on the
+ * queue, else null; pass rows through `withQueuePlaces` to fill it.
  */
-export function checkBuildRequest(body: { name?: string, input: unknown, baseline?: unknown, members?: unknown, grid?: unknown }) {
-  const input = withOverrides(body.input, body.members, body.grid)
-  let doc
+export const publicSetBuild = (b: SetBuild & { queuePlace?: number | null }) => ({
+  id: b.id, name: b.name, state: b.state, progress: { done: b.progressDone, total: b.progressTotal },
+  error: b.error, setId: b.setId, requestedBy: b.requestedBy, createdAt: b.createdAt,
+  startedAt: b.startedAt, finishedAt: b.finishedAt, cancelRequested: b.cancelRequested,
+  queuePlace: b.state === 'queued' ? (b.queuePlace ?? null) : null
+})
+
+/** 400 (malformed) or 422 (well-formed, but the engine cannot build it) for a refused document. */
+function inputRejection(err: InputError): never {
+  const n = err.issues.length
+  const first = err.issues[0]!
+  fail(onlyPhysics(err.issues) ? 422 : 400, `The ${err.source} document has ${n} problem${n > 1 ? 's' : ''}: ${first.path ? `${first.path}: ` : ''}${first.message}`, {
+    issues: err.issues.map(i => ({ message: i.message, path: i.path, document: err.source, ...(i.kind ? { kind: i.kind } : {}) }))
+  })
+}
+
+/** The engine's model of a request (overrides applied), or 400/422 naming each JSON path. */
+function modelOf(request: SetBuildRequest): InputModel {
   try {
-    doc = parseInputDocument(input, 'input')
+    const doc = parseInputDocument(request.input, 'input')
     let baseline
     if (doc.kind === 'nuclear') {
-      if (body.baseline === undefined) {
+      if (request.baseline === undefined) {
         throw new InputError('input', [{ path: 'baseline', message: 'a nuclear modification needs its baseline parametrised input in "baseline"' }])
       }
-      baseline = parseInputDocument(body.baseline, 'baseline')
+      baseline = parseInputDocument(request.baseline, 'baseline')
       if (baseline.kind !== 'parametrised') throw new InputError('baseline', [{ path: 'format', message: 'the baseline must be a sheaf.parametrised-input document' }])
+    } else if (request.baseline !== undefined) {
+      throw new InputError('request', [{ path: 'baseline', message: 'a baseline belongs only to a nuclear modification (sheaf.nuclear-modification); this input is a parametrised input' }])
     }
-    // Compiling binds every parameter reference: a problem shows now, not in the worker.
-    compileInput(doc, baseline)
+    // Compiling binds every parameter reference and checks every term at the central values.
+    return compileInput(doc, baseline)
   } catch (err) {
-    if (err instanceof InputError) {
-      fail(400, `The ${err.source} document has ${err.issues.length} problem${err.issues.length > 1 ? 's' : ''}: ${err.issues[0]!.path ? `${err.issues[0]!.path}: ` : ''}${err.issues[0]!.message}`, { issues: err.issues.map(i => ({ message: i.message, path: i.path, document: err.source })) })
-    }
+    if (err instanceof InputError) inputRejection(err)
     if (err instanceof RangeError) fail(400, err.message, { issues: [{ message: err.message }] })
     throw err
   }
-  const members = (doc.doc as { members?: unknown }).members
-  if (members === undefined) {
+}
+
+/** The size of the set a checked request will write (for the budget and the quota). */
+export function requestedBuildSize(request: SetBuildRequest): BuildSize {
+  return buildSize(modelOf(request))
+}
+
+/** About the bytes of a set file of `size` (8 per value; the header adds a few KiB). */
+const fileBytes = (size: BuildSize) => 8 * size.values
+
+/**
+ * Checks a build request before anything is stored or queued, the members and grid overrides
+ * applied first: the engine's input checks (400 for a malformed document, 422 for one the
+ * evolution would refuse: divergent terms, grid, start scale, tolerance, covariance; each issue
+ * with its JSON path in data.issues), the members block (400), the build budget (413: members ×
+ * nodes × 13 flavours at most `limits.buildMaxValues`), then every member's parameters (422:
+ * integrable terms, solvable sum rules, finite x·f at μ₀²). Returns the set name to use.
+ */
+export function checkBuildRequest(body: { name?: string, input: unknown, baseline?: unknown, members?: unknown, grid?: unknown }, limits: Limits = LIMITS) {
+  const request = { input: withOverrides(body.input, body.members, body.grid), baseline: body.baseline, members: body.members, grid: body.grid } satisfies SetBuildRequest
+  const model = modelOf(request)
+  if (model.members === undefined) {
     fail(400, 'Say how to publish the spread: Hessian (tolerance) or replicas (count and seed)', { issues: [{ message: 'no members given in the request or the document', path: 'members' }] })
   }
-  return { name: body.name ?? doc.doc.name, request: { input, baseline: body.baseline, members: body.members, grid: body.grid } satisfies SetBuildRequest }
+  const size = buildSize(model)
+  if (size.values > limits.buildMaxValues) {
+    const what = `${formatCount(size.members)} members × ${size.xNodes} x nodes × ${size.q2Nodes} Q² nodes × ${size.flavours} flavours = ${formatCount(size.values)} values (${formatBytes(fileBytes(size))})`
+    fail(413, `This build is too large: ${what}; a build may hold at most ${formatCount(limits.buildMaxValues)} values (${formatBytes(8 * limits.buildMaxValues)}). Use fewer ${model.members.type === 'replicas' ? 'replicas' : 'parameters'} or a coarser grid`, {
+      issues: [{ message: `at most ${formatCount(limits.buildMaxValues)} values; this build needs ${formatCount(size.values)}`, path: model.members.type === 'replicas' ? 'members.count' : 'grid' }],
+      size, maxValues: limits.buildMaxValues
+    })
+  }
+  const issues: InputIssue[] = memberIssues(model)
+  if (issues.length > 0) inputRejection(new InputError('input', issues))
+  return { name: body.name ?? model.name, request }
 }
 
 /** The document with the request's `members` and `grid` in place of its own. */
@@ -57,20 +98,71 @@ export function withOverrides(input: unknown, members: unknown, grid: unknown) {
 }
 
 /**
- * Inserts the build row with its audit event in one transaction, then (committed) queues the
- * build-set job (id = row id). A failure before the commit leaves no row and no job; a queue
- * failure after it marks the row failed and answers 503 (enqueueRow).
+ * The queue priority of build `buildId` (BullMQ: lower runs first): 1 + the builds of the same
+ * workspace that were queued or running when it was requested (created before it and not
+ * finished then). A workspace's second waiting build thus queues behind every other workspace's
+ * first; within one priority, first come first served. Computed from the rows alone, so
+ * `withQueuePlaces` derives the same order later.
  */
-export async function startSetBuild(db: DB, queues: QueueSource, workspaceId: string, userId: string, name: string, request: SetBuildRequest) {
+export async function buildPriority(db: DB, buildId: string): Promise<number> {
+  const { rows } = await db.execute<{ priority: number }>(sql`
+    select 1 + count(x.id)::int as priority
+    from ${t.setBuilds} b join ${t.setBuilds} x
+      on x.workspace_id = b.workspace_id and x.id <> b.id and x.created_at <= b.created_at
+     and (x.finished_at is null or x.finished_at > b.created_at)
+    where b.id = ${buildId}`)
+  return Number(rows[0]?.priority ?? 1)
+}
+
+/** BullMQ's largest job priority. */
+const MAX_PRIORITY = 2_097_152
+
+/**
+ * Each waiting build's place on the build queue (1 = next to start), across all workspaces:
+ * ordered by buildPriority, then by request time, as BullMQ takes them.
+ */
+export async function queuePlaces(db: DB): Promise<Map<string, number>> {
+  const { rows } = await db.execute<{ id: string, place: number }>(sql`
+    with waiting as (
+      select b.id, b.created_at, 1 + (
+        select count(*) from ${t.setBuilds} x
+        where x.workspace_id = b.workspace_id and x.id <> b.id and x.created_at <= b.created_at
+          and (x.finished_at is null or x.finished_at > b.created_at)
+      ) as priority
+      from ${t.setBuilds} b
+      where b.state = 'queued' and b.job_id is not null
+    )
+    select id, (row_number() over (order by least(priority, ${MAX_PRIORITY}), created_at, id))::int as place from waiting`)
+  return new Map(rows.map(r => [r.id, Number(r.place)]))
+}
+
+/** The rows with their queue places (see publicSetBuild). */
+export async function withQueuePlaces<T extends SetBuild>(db: DB, builds: T[]): Promise<Array<T & { queuePlace: number | null }>> {
+  const places = builds.some(b => b.state === 'queued') ? await queuePlaces(db) : new Map<string, number>()
+  return builds.map(b => ({ ...b, queuePlace: places.get(b.id) ?? null }))
+}
+
+/**
+ * Inserts the build row with its audit event in one transaction, then (committed) queues the
+ * build-set job (id = row id) at its fair priority (buildPriority). 413 when the set it will write
+ * does not fit the workspace's storage quota. A failure before the commit leaves no row and no
+ * job; a queue failure after it marks the row failed and answers 503 (enqueueRow). The row comes
+ * back with its queue place.
+ */
+export async function startSetBuild(db: DB, queues: QueueSource, workspaceId: string, userId: string, name: string, request: SetBuildRequest, limits: Limits = LIMITS) {
+  const bytes = fileBytes(requestedBuildSize(request))
+  await assertQuota(db, workspaceId, bytes, `the set this build writes (about ${formatBytes(bytes)})`, limits.workspaceQuotaBytes)
   const row = await db.transaction(async (tx) => {
     const [inserted] = await tx.insert(t.setBuilds).values({ workspaceId, name, request, requestedBy: userId }).returning()
     await audit(tx, { workspaceId, actorId: userId, action: 'set.build-queued', subjectType: 'set_build', subjectId: inserted!.id, detail: { name } })
     return inserted!
   })
   const payload: BuildSetPayload = { buildId: row.id }
-  await enqueueRow(db, queues, t.setBuilds, BUILD_SET_QUEUE, row.id, payload)
+  const priority = Math.min(MAX_PRIORITY, await buildPriority(db, row.id))
+  await enqueueRow(db, queues, t.setBuilds, BUILD_SET_QUEUE, row.id, payload, { priority })
   const [queued] = await db.select().from(t.setBuilds).where(eq(t.setBuilds.id, row.id))
-  return queued!
+  const [withPlace] = await withQueuePlaces(db, [queued!])
+  return withPlace!
 }
 
 /** Cancels a queued or running build (cancelRow, with its audit event); the row as it is now. */

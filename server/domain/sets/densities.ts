@@ -58,7 +58,8 @@ export function densityBands(set: ErrorSet, request: DensityRequest, reference?:
   const refStencils = reference ? Array.from(request.x, x => interpolationStencil(preparedAxesOf(reference), x, request.q2GeV2)) : null
   const source = memberSourceOf(set.header)
   const carried = new Set(set.flavours)
-  return request.flavours.map((f) => {
+  // A flavour asked for twice is computed once (the query schema drops repeats too).
+  return [...new Set(request.flavours)].map((f) => {
     const values = memberMatrix(set, stencils, f)
     const band = bandsFromValues({ members: set.members.length, bins: request.x.length, values }, source, request.prescription, request.clPercent)
     let ratio: BandJson | null = null

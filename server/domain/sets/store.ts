@@ -1,13 +1,17 @@
 // Reading stored error sets and storing new ones. Parsed sets are kept in an LRU cache keyed by
 // the file's SHA-256 and bounded by the files' total size, so a server or worker keeps a few
-// sets hot without growing (SHEAF_SET_CACHE_BYTES, default 256 MiB).
+// sets hot without growing (SHEAF_SET_CACHE_BYTES, default 256 MiB). Each workspace may store
+// set files up to its quota (SHEAF_WORKSPACE_QUOTA_BYTES, default 2 GiB): a set that does not
+// fit is refused with 413 and nothing is stored.
 import { createHash } from 'node:crypto'
-import { eq } from 'drizzle-orm'
+import { eq, sql } from 'drizzle-orm'
 import { LRUCache } from 'lru-cache'
 import type { DB, Tx } from '../../database/client'
 import { tables as t } from '../../database/client'
 import { parseSetFile, readSetHeader } from '../../../shared/physics/sets/parse'
 import type { ErrorSet } from '../../../shared/physics/types'
+import { fail } from '../errors'
+import { formatBytes, LIMITS } from '../limits'
 
 const cacheBytes = Number(process.env.SHEAF_SET_CACHE_BYTES) || 256 * 1024 * 1024
 
@@ -44,8 +48,33 @@ export function setRowFields(bytes: Uint8Array) {
   }
 }
 
-/** Inserts a checked set file as a new error set of `workspaceId` (inside `tx`); its id. */
-export async function insertErrorSet(tx: Tx | DB, o: { workspaceId: string, name: string, fileName: string, bytes: Uint8Array, origin: 'upload' | 'build', addedBy: string | null }) {
+/** Bytes of set files stored in workspace `workspaceId`. */
+export async function storedSetBytes(db: Tx | DB, workspaceId: string): Promise<number> {
+  const [row] = await db.select({ bytes: sql<number>`coalesce(sum(${t.errorSets.sizeBytes}), 0)::float8` })
+    .from(t.errorSets).where(eq(t.errorSets.workspaceId, workspaceId))
+  return Number(row?.bytes ?? 0)
+}
+
+/**
+ * 413 unless `addingBytes` more fit the workspace's quota, the numbers in the message and in
+ * data.quota. `what` names the newcomer ("toy.sheafset (12 MiB)", "the built set (about 40 MiB)").
+ */
+export async function assertQuota(db: Tx | DB, workspaceId: string, addingBytes: number, what: string, quotaBytes = LIMITS.workspaceQuotaBytes) {
+  const used = await storedSetBytes(db, workspaceId)
+  if (used + addingBytes <= quotaBytes) return
+  fail(413, `This workspace stores ${formatBytes(used)} of set files and its quota is ${formatBytes(quotaBytes)}: ${what} does not fit (${formatBytes(Math.max(0, quotaBytes - used))} left). Delete sets you no longer need, or ask for a larger quota (SHEAF_WORKSPACE_QUOTA_BYTES)`, {
+    quota: { usedBytes: used, addingBytes, quotaBytes }
+  })
+}
+
+/**
+ * Inserts a checked set file as a new error set of `workspaceId` (inside `tx`); its id. The
+ * workspace row is locked first (inside a transaction), so concurrent inserts cannot overrun the
+ * quota together; 413 (assertQuota) when the file does not fit.
+ */
+export async function insertErrorSet(tx: Tx | DB, o: { workspaceId: string, name: string, fileName: string, bytes: Uint8Array, origin: 'upload' | 'build', addedBy: string | null }, quotaBytes = LIMITS.workspaceQuotaBytes) {
+  await tx.select({ id: t.workspaces.id }).from(t.workspaces).where(eq(t.workspaces.id, o.workspaceId)).for('update')
+  await assertQuota(tx, o.workspaceId, o.bytes.byteLength, `${o.fileName || o.name} (${formatBytes(o.bytes.byteLength)})`, quotaBytes)
   const content = Buffer.from(o.bytes.buffer, o.bytes.byteOffset, o.bytes.byteLength)
   const sha256 = sha256Hex(content)
   const [row] = await tx.insert(t.errorSets).values({

@@ -3,11 +3,13 @@
 import { makeAlphas } from '../../../shared/physics/alphas'
 import { MZ_GEV } from '../../../shared/physics/constants'
 import { ExpressionError } from '../../../shared/physics/kernels/expression'
-import type { KernelContext } from '../../../shared/physics/kernels/registry'
+import { kernelDefinition, type KernelContext, type KernelDefinition } from '../../../shared/physics/kernels/registry'
 import { buildUserKernel, type UserKernelOptions } from '../../../shared/physics/kernels/user-kernel'
 import { checkReach, type StudyAxes } from '../../../shared/physics/study/expand'
 import { checkStudySpec, type StudyIssue, type StudySpec } from '../../../shared/physics/study/spec'
 import type { SetHeader } from '../../../shared/physics/types'
+import { DomainError } from '../errors'
+import { formatCount, LIMITS, type Limits } from '../limits'
 
 /** The part of an error_sets row the checks need. */
 export interface SetForCheck {
@@ -90,4 +92,64 @@ export function reachProblems(spec: StudySpec, set: SetForCheck, second?: SetFor
     if (!(err instanceof RangeError)) throw err
     return [{ setId: set.id, setName: `${set.name} ${set.version}`, bin: 0, kind: 'kinematics', message: `${set.name} ${set.version}: ${err.message}` }]
   }
+}
+
+/** The single kernels a study evaluates (two for a ratio or asymmetry) with their options. */
+function kernelParts(spec: StudySpec): Array<{ def: KernelDefinition, options: Record<string, unknown> }> {
+  const def = kernelDefinition(spec.kernel)
+  return def.composite
+    ? def.parts(spec.options).map(p => ({ def: kernelDefinition(p.kernel) as KernelDefinition, options: p.options }))
+    : [{ def, options: spec.options }]
+}
+
+/**
+ * How many quadrature points the engine expands a (validated) study into, without expanding it:
+ * per bin and part, quadratureOrder points for each kernel variable given as a range (1 for a
+ * point), times fullRangeOrder for kernels that integrate the whole rapidity range; the parts
+ * of a ratio or asymmetry add up (study/expand.ts does the same tensor product).
+ * @example quadraturePoints({ kernel: 'drell-yan', bins: [{ mMin: 60, mMax: 70, yMin: 0, yMax: 1 }], quadratureOrder: 8, … }) // 64
+ */
+export function quadraturePoints(spec: StudySpec): number {
+  let total = 0
+  for (const part of kernelParts(spec)) {
+    const variables = part.def.variables(part.options)
+    const full = part.def.fullRapidityMass ? spec.fullRangeOrder : 1
+    for (const row of spec.bins) {
+      let n = full
+      for (const v of variables) if (row[v.name] === undefined) n *= spec.quadratureOrder
+      total += n
+    }
+  }
+  return total
+}
+
+/**
+ * The study's size against the budgets, before anything is expanded or stored: 413 with the
+ * cap in the message for more than `limits.studyMaxBins` bins or `limits.studyMaxPoints`
+ * quadrature points.
+ */
+export function studySizeProblem(spec: StudySpec, limits: Limits = LIMITS): DomainError | null {
+  const bins = spec.bins.length
+  if (bins > limits.studyMaxBins) {
+    return new DomainError(413, `A study may have at most ${formatCount(limits.studyMaxBins)} bins; this one has ${formatCount(bins)}. Split it into several studies`, {
+      issues: [{ message: `at most ${formatCount(limits.studyMaxBins)} bins`, path: ['bins'] }], maxBins: limits.studyMaxBins, bins
+    })
+  }
+  const points = quadraturePoints(spec)
+  if (points > limits.studyMaxPoints) {
+    const fullRange = kernelParts(spec).some(p => p.def.fullRapidityMass)
+    return new DomainError(413, `This study's ${formatCount(bins)} bins expand into ${formatCount(points)} quadrature points; a study may have at most ${formatCount(limits.studyMaxPoints)}. Lower quadratureOrder (now ${spec.quadratureOrder} points per ranged variable)${fullRange ? ` or fullRangeOrder (now ${spec.fullRangeOrder})` : ''}, or split the study`, {
+      issues: [{ message: `at most ${formatCount(limits.studyMaxPoints)} quadrature points`, path: ['quadratureOrder'] }], maxPoints: limits.studyMaxPoints, points
+    })
+  }
+  return null
+}
+
+/** 413 when running `members` members on the study's bins exceeds `limits.runMaxValues`, else null. */
+export function runSizeProblem(spec: StudySpec, set: { name: string, version: string, memberCount: number }, limits: Limits = LIMITS): DomainError | null {
+  const values = set.memberCount * spec.bins.length
+  if (values <= limits.runMaxValues) return null
+  return new DomainError(413, `${set.name} ${set.version} has ${formatCount(set.memberCount)} members; on ${formatCount(spec.bins.length)} bins a run would hold ${formatCount(values)} values, and a run may hold at most ${formatCount(limits.runMaxValues)} (members × bins). Use fewer bins or a set with fewer members`, {
+    issues: [{ message: `members × bins at most ${formatCount(limits.runMaxValues)}`, path: ['setIds'] }], maxValues: limits.runMaxValues, values
+  })
 }

@@ -22,7 +22,7 @@ import { storedBands, bandsFromValues, memberSourceOf } from '../results/bands'
 import { float64ToBytes } from '../results/float64'
 import type { RunOptions } from '../sets/build'
 import { loadErrorSet } from '../sets/store'
-import { kernelContextOf, pairRoles } from './check'
+import { kernelContextOf, pairRoles, runSizeProblem, studySizeProblem } from './check'
 
 /** Members per chunk: progress is reported and the cancel flag read after each chunk. */
 const chunkSize = (members: number) => Math.max(1, Math.min(25, Math.ceil(members / 20)))
@@ -39,6 +39,9 @@ export function runStudy(db: DB, resultId: string, o: RunOptions = {}) {
 async function compute(db: DB, result: Result, onProgress: RunOptions['onProgress']) {
   const snapshot = result.specSnapshot
   const spec = parseStudySpec(snapshot.spec)
+  // Runs queued before the budgets existed (or under larger ones) fail at once, before loading.
+  const tooLarge = studySizeProblem(spec) ?? runSizeProblem(spec, snapshot.set)
+  if (tooLarge) throw new RangeError(tooLarge.message)
   const set = await loadErrorSet(db, result.setId)
   const second = result.secondSetId ? await loadErrorSet(db, result.secondSetId) : null
   const values = await evaluateMembers(db, result, spec, set, second, onProgress)

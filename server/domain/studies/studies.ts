@@ -5,7 +5,7 @@ import type { Result, Study } from '../../database/schema'
 import { resultUnit, type StudySpec } from '../../../shared/physics/study/spec'
 import { DomainError, fail } from '../errors'
 import { setsOfWorkspace } from '../sets/library'
-import { checkSpec, reachProblems, type ReachProblem } from './check'
+import { checkSpec, reachProblems, runSizeProblem, studySizeProblem, type ReachProblem } from './check'
 
 /** What the API shows of a study. */
 export const publicStudy = (s: Study) => ({
@@ -42,16 +42,24 @@ export interface StudyInput {
 
 /**
  * The validated spec of a study, its sets and second set, or: 400 with `data.issues` (engine
- * issues located by bin and column, or a set that is not in the workspace), 422 with
- * `data.issues` when a bin lies beyond the kinematic limit or outside a set's grid.
+ * issues located by bin and column, or a set that is not in the workspace), 413 when the study
+ * is over the bins or quadrature-points budget or a set's members × bins is over the run budget
+ * (server/domain/limits.ts), 422 with `data.issues` when a bin lies beyond the kinematic limit
+ * or outside a set's grid. The budgets come before the reach check, which expands every point.
  */
 export async function validateStudy(db: DB, workspaceId: string, input: StudyInput) {
   const checked = checkSpec(input.spec)
   if (!checked.spec) {
     fail(400, `The study has ${checked.issues.length} problem${checked.issues.length > 1 ? 's' : ''}: ${checked.issues[0]!.message}`, { issues: checked.issues.map(i => ({ message: i.message, bin: i.bin, column: i.column, path: i.path })) })
   }
+  const tooLarge = studySizeProblem(checked.spec)
+  if (tooLarge) throw tooLarge
   const sets = await setsOfWorkspace(db, workspaceId, input.setIds)
   const [second] = input.secondSetId ? await setsOfWorkspace(db, workspaceId, [input.secondSetId], 'secondSetId') : [null]
+  for (const s of sets) {
+    const runTooLarge = runSizeProblem(checked.spec, s)
+    if (runTooLarge) throw runTooLarge
+  }
   const problems: ReachProblem[] = sets.flatMap(s => reachProblems(checked.spec, s, second))
   if (problems.length) throw reachError(problems)
   return { spec: checked.spec, sets, second: second ?? null }

@@ -3,7 +3,7 @@
  * factors that impose the valence and momentum sum rules for that vector.
  */
 import { quarkSlots } from './flavours'
-import type { CoefficientRef, InputModel } from './model'
+import type { CoefficientRef, InputModel, ModelPiece } from './model'
 import { multiplyTerms, termMoment, type NumericTerm } from './moments'
 
 /** A piece with numeric terms and its sum-rule normalisation (1 unless a rule names it). */
@@ -24,6 +24,20 @@ export interface BoundInput {
 
 function valueOf(ref: CoefficientRef, params: ArrayLike<number>): number {
   return typeof ref === 'number' ? ref : params[ref.param]!
+}
+
+/**
+ * The terms of a model piece with `params` bound, each the numeric product of its factors (no
+ * sum rules applied, nothing checked).
+ * @example numericTerms(model.pieces[0], model.central)[0].a // the first term's small-x power
+ */
+export function numericTerms(piece: ModelPiece, params: ArrayLike<number>): NumericTerm[] {
+  return piece.terms.map(factors => multiplyTerms(factors.map(f => ({
+    A: valueOf(f.A, params),
+    a: valueOf(f.a, params),
+    b: valueOf(f.b, params),
+    c: Float64Array.from(f.c, c => valueOf(c, params))
+  }))))
 }
 
 /** Solves the small dense system A k = r (Gaussian elimination, partial pivoting). */
@@ -69,17 +83,7 @@ export function bindParameters(model: InputModel, params: ArrayLike<number> = mo
   for (let i = 0; i < params.length; i++) {
     if (!Number.isFinite(params[i])) throw new RangeError(`${label}: parameter ${model.parameterNames[i]} = ${params[i]} is not finite`)
   }
-  const pieces: BoundPiece[] = model.pieces.map(p => ({
-    id: p.id,
-    weights: p.weights,
-    norm: 1,
-    terms: p.terms.map(factors => multiplyTerms(factors.map(f => ({
-      A: valueOf(f.A, params),
-      a: valueOf(f.a, params),
-      b: valueOf(f.b, params),
-      c: Float64Array.from(f.c, c => valueOf(c, params))
-    }))))
-  }))
+  const pieces: BoundPiece[] = model.pieces.map(p => ({ id: p.id, weights: p.weights, norm: 1, terms: numericTerms(p, params) }))
   const u = quarkSlots(2)
   const d = quarkSlots(1)
   const rules: { piece: number, target: number, weight: (w: Float64Array) => number, n: number, what: string }[] = []

@@ -3,11 +3,20 @@
  * carries every problem found, each with its JSON path, so a route can answer 400 with `data`.
  */
 
-/** One problem in a document: where (a JSON path such as `pieces[2].terms[0].a`) and what. */
+/**
+ * One problem in a document: where (a JSON path such as `pieces[2].terms[0].a`) and what.
+ * `kind` tells a well-formed document whose numbers the engine cannot build from ('physics': a
+ * divergent integral, a grid or scale out of range, a covariance that is not positive definite)
+ * from one that is malformed ('structure', the default: wrong types, unknown names, shapes).
+ */
 export interface InputIssue {
   path: string
   message: string
+  kind?: 'structure' | 'physics'
 }
+
+/** True when every issue is a physics issue (a route answers 422 then, else 400). */
+export const onlyPhysics = (issues: readonly InputIssue[]) => issues.length > 0 && issues.every(i => i.kind === 'physics')
 
 /**
  * A document was refused. `message` reads "<source>: <path>: <problem>; …" (at most eight

@@ -11,14 +11,18 @@ export {
   type GridSpec, type MembersSpec, type NuclearModificationDoc, type ParametrisedInputDoc, type PieceDoc, type TermDoc
 } from './schema'
 export { parseInputDocument, parseInputText, type InputDocument } from './parse'
-export { InputError, type InputIssue } from './errors'
+export { InputError, onlyPhysics, type InputIssue } from './errors'
+export {
+  BUILD_LIMITS, alphasReference, buildSize, centralTermIssues, landauPoleGeV2, memberIssues, memberVectors,
+  membersSpecIssues, q2GridIssues, startScaleIssues, xGridIssues, type BuildSize, type MemberVector
+} from './feasibility'
 
 // Model and parameter binding
 export {
   compileInput, compileParametrisedInput,
-  type CoefficientRef, type FactorRef, type InputModel, type ModelPiece, type SumRuleTargets
+  type CoefficientRef, type FactorRef, type InputModel, type ModelPiece, type SumRuleTargets, type TermSource
 } from './model'
-export { bindParameters, type BoundInput, type BoundPiece } from './bind'
+export { bindParameters, numericTerms, type BoundInput, type BoundPiece } from './bind'
 
 // Moments and evaluation
 export { multiplyTerms, termMoment, termMomentComplex, termXf, type NumericTerm } from './moments'

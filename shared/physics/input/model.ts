@@ -8,6 +8,7 @@ import type { AlphasReference } from '../alphas'
 import { MZ_GEV } from '../constants'
 import type { FlavourScheme, SetTarget } from '../types'
 import { InputError, type InputIssue } from './errors'
+import { centralTermIssues, q2GridIssues } from './feasibility'
 import { N_SLOTS, slotOf } from './flavours'
 import type { InputDocument } from './parse'
 import type { GridSpec, MembersSpec, ParametrisedInputDoc, TermDoc } from './schema'
@@ -30,6 +31,19 @@ export interface ModelPiece {
   weights: Float64Array
   /** Terms; each is the product of its factors (one factor for a proton input). */
   terms: FactorRef[][]
+  /**
+   * Where each term comes from in the document, for messages: the JSON path of the term that
+   * carries its free parameters (`pieces[i].terms[k]`; for a nuclear modification
+   * `modifications[m].terms[r]`, with the baseline term it multiplies in `baselineTerm`).
+   */
+  termSources?: TermSource[]
+}
+
+/** The document place of a compiled term (see ModelPiece.termSources). */
+export interface TermSource {
+  path: string
+  /** For a bound-proton term: the baseline term it multiplies, e.g. `pieces[0].terms[1]`. */
+  baselineTerm?: string
 }
 
 /** Indices (into `pieces`) of the pieces normalised by each sum rule. */
@@ -104,10 +118,11 @@ function baseModel(doc: ParametrisedInputDoc, fixed: Map<string, number>, index:
     alphas: { value: doc.alphas.value, scaleGeV2: doc.alphas.scaleGeV2 === 'mz' ? MZ_GEV * MZ_GEV : doc.alphas.scaleGeV2 },
     scheme: doc.scheme,
     covariance: doc.covariance,
-    pieces: doc.pieces.map(p => ({
+    pieces: doc.pieces.map((p, i) => ({
       id: p.id,
       weights: weightsOf(p.flavours),
-      terms: p.terms.map(t => [compileFactor(t, index, fixed)])
+      terms: p.terms.map(t => [compileFactor(t, index, fixed)]),
+      termSources: p.terms.map((_, k) => ({ path: `pieces[${i}].terms[${k}]` }))
     })),
     sumRules: rules,
     members: doc.members,
@@ -137,11 +152,13 @@ export function compileParametrisedInput(doc: ParametrisedInputDoc): InputModel 
  * α_s, scheme, μ₀² and sum rules are the baseline's; target, names and members the document's;
  * the grid the document's, else the baseline's.
  * @throws InputError when the baseline is missing, has another name, is itself nuclear, or the
- * modifications do not cover each baseline piece exactly once.
+ * modifications do not cover each baseline piece exactly once; and (kind 'physics') when a term
+ * is not integrable at the central values or the Q² grid does not fit the baseline's thresholds
+ * (feasibility.ts).
  * @example compileInput(nuclearDocument, baselineDocument)
  */
 export function compileInput(document: InputDocument, baseline?: InputDocument, source = 'input'): InputModel {
-  if (document.kind === 'parametrised') return compileParametrisedInput(document.doc)
+  if (document.kind === 'parametrised') return checkedModel(compileParametrisedInput(document.doc), [], source)
   const nuc = document.doc
   const issues: InputIssue[] = []
   if (!baseline) {
@@ -187,11 +204,15 @@ export function compileInput(document: InputDocument, baseline?: InputDocument, 
   const index = new Map(nuc.parameters.map((p, i) => [p.name, i]))
   const model = baseModel(base, fixed, new Map())
   const pieces = model.pieces.map((piece, i) => {
-    const mod = nuc.modifications[coveredBy.get(pieceIds[i]!)!]!
-    const rFactors = mod.terms.map(t => compileFactor(t, index, fixed))
-    return { ...piece, terms: piece.terms.flatMap(factors => rFactors.map(r => [...factors, r])) }
+    const m = coveredBy.get(pieceIds[i]!)!
+    const rFactors = nuc.modifications[m]!.terms.map(t => compileFactor(t, index, fixed))
+    return {
+      ...piece,
+      terms: piece.terms.flatMap(factors => rFactors.map(r => [...factors, r])),
+      termSources: piece.terms.flatMap((_, k) => rFactors.map((_r, r) => ({ path: `modifications[${m}].terms[${r}]`, baselineTerm: `pieces[${i}].terms[${k}]` })))
+    }
   })
-  return {
+  return checkedModel({
     ...model,
     name: nuc.name,
     family: nuc.family,
@@ -205,5 +226,12 @@ export function compileInput(document: InputDocument, baseline?: InputDocument, 
     members: nuc.members,
     grid: nuc.grid ?? base.grid,
     baseline: { name: base.name, version: base.version }
-  }
+  }, nuc.grid ? q2GridIssues(nuc.grid, base.startScaleGeV2, base.scheme) : [], source)
+}
+
+/** The model, unless a term diverges at the central values or `issues` has problems (InputError). */
+function checkedModel(model: InputModel, issues: InputIssue[], source: string): InputModel {
+  const all = [...issues, ...centralTermIssues(model)]
+  if (all.length > 0) throw new InputError(source, all)
+  return model
 }

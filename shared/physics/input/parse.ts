@@ -7,6 +7,7 @@ import { activeFlavours, checkScheme } from '../alphas'
 import { checkedCovariance } from '../fit/covariance'
 import { formatPath } from '../json-path'
 import { InputError, type InputIssue } from './errors'
+import { alphasReference, membersSpecIssues, q2GridIssues, startScaleIssues, xGridIssues } from './feasibility'
 import {
   NuclearModificationSchema, ParametrisedInputSchema,
   type NuclearModificationDoc, type ParametrisedInputDoc, type TermDoc
@@ -79,12 +80,14 @@ export function parseInputDocument(value: unknown, source = 'input'): InputDocum
     if (!r.success) throw new InputError(source, zodIssues(r.error))
     const issues = checkParameterBlock(r.data.parameters, r.data.covariance, r.data.members !== undefined)
     issues.push(...checkReferences(r.data.parameters.map(p => p.name), r.data.modifications.map((m, i) => ({ path: `modifications[${i}]`, terms: m.terms })), true))
+    // The Q² grid against the thresholds needs the baseline's scheme: compileInput checks it.
+    issues.push(...xGridIssues(r.data.grid), ...q2GridIssues(r.data.grid), ...membersSpecIssues(r.data.members))
     const ids = new Set<string>()
     r.data.modifications.forEach((m, i) => {
       if (ids.has(m.id)) issues.push({ path: `modifications[${i}].id`, message: `duplicate modification id "${m.id}"` })
       ids.add(m.id)
     })
-    if (r.data.target.z > r.data.target.a) issues.push({ path: 'target', message: `Z = ${r.data.target.z} exceeds A = ${r.data.target.a}` })
+    if (r.data.target.z > r.data.target.a) issues.push({ path: 'target', message: `Z = ${r.data.target.z} exceeds A = ${r.data.target.a}`, kind: 'physics' })
     if (issues.length > 0) throw new InputError(source, issues)
     return { kind: 'nuclear', doc: r.data }
   }
@@ -118,7 +121,7 @@ function checkParameterBlock(
         try {
           checkedCovariance(covariance, n)
         } catch (e) {
-          issues.push({ path: 'covariance', message: (e as Error).message.replace(/C\[(\d+)\]\[(\d+)\]/g, (_, i, j) => `C[${i}][${j}] (${parameters[Number(i)]?.name} × ${parameters[Number(j)]?.name})`) })
+          issues.push({ path: 'covariance', message: (e as Error).message.replace(/C\[(\d+)\]\[(\d+)\]/g, (_, i, j) => `C[${i}][${j}] (${parameters[Number(i)]?.name} × ${parameters[Number(j)]?.name})`), kind: 'physics' })
         }
       }
     }
@@ -169,7 +172,7 @@ function checkParametrised(doc: ParametrisedInputDoc): InputIssue[] {
     checkScheme(doc.scheme)
   } catch (e) {
     schemeOk = false
-    issues.push({ path: 'scheme.massesGeV', message: (e as Error).message })
+    issues.push({ path: 'scheme.massesGeV', message: (e as Error).message, kind: 'physics' })
   }
   const nfStart = schemeOk ? activeFlavours(doc.startScaleGeV2, doc.scheme) : 6
   const ids = new Map<string, number>()
@@ -185,7 +188,8 @@ function checkParametrised(doc: ParametrisedInputDoc): InputIssue[] {
       if (q >= 1 && q <= 6 && q > nfStart) {
         issues.push({
           path: `pieces[${i}].flavours.${k}`,
-          message: `flavour ${k} is not active at μ₀² = ${doc.startScaleGeV2} GeV² in this ${doc.scheme.type}-flavour scheme (n_f = ${nfStart} there); a heavy quark starts at zero at its threshold`
+          message: `flavour ${k} is not active at μ₀² = ${doc.startScaleGeV2} GeV² in this ${doc.scheme.type}-flavour scheme (n_f = ${nfStart} there); a heavy quark starts at zero at its threshold`,
+          kind: 'physics'
         })
       }
     }
@@ -199,14 +203,16 @@ function checkParametrised(doc: ParametrisedInputDoc): InputIssue[] {
     named.set(id, rule)
   }
   if (doc.grid?.x && !(doc.grid.x.min < doc.grid.x.max)) {
-    issues.push({ path: 'grid.x', message: `min = ${doc.grid.x.min} must be below max = ${doc.grid.x.max}` })
+    issues.push({ path: 'grid.x', message: `min = ${doc.grid.x.min} must be below max = ${doc.grid.x.max}`, kind: 'physics' })
   }
   if (doc.grid?.q2 && !(doc.grid.q2.maxGeV2 > doc.startScaleGeV2)) {
-    issues.push({ path: 'grid.q2.maxGeV2', message: `must exceed the starting scale μ₀² = ${doc.startScaleGeV2} GeV²` })
+    issues.push({ path: 'grid.q2.maxGeV2', message: `must exceed the starting scale μ₀² = ${doc.startScaleGeV2} GeV²`, kind: 'physics' })
   }
   if (doc.target.type === 'nucleus' && doc.target.z > doc.target.a) {
-    issues.push({ path: 'target', message: `Z = ${doc.target.z} exceeds A = ${doc.target.a}` })
+    issues.push({ path: 'target', message: `Z = ${doc.target.z} exceeds A = ${doc.target.a}`, kind: 'physics' })
   }
+  if (schemeOk) issues.push(...startScaleIssues(doc.startScaleGeV2, alphasReference(doc.alphas), doc.scheme))
+  issues.push(...xGridIssues(doc.grid), ...q2GridIssues(doc.grid, doc.startScaleGeV2, schemeOk ? doc.scheme : undefined), ...membersSpecIssues(doc.members))
   if (doc.members && doc.parameters.length === 0) {
     issues.push({ path: 'members', message: 'members need at least one fit parameter' })
   }

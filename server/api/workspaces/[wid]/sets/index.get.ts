@@ -1,7 +1,7 @@
 import { desc, eq } from 'drizzle-orm'
 import { tables as t } from '../../../../database/client'
 import { listSets } from '../../../../domain/sets/library'
-import { publicSetBuild } from '../../../../domain/sets/builds'
+import { publicSetBuild, withQueuePlaces } from '../../../../domain/sets/builds'
 
 // The workspace's error-set library, and the builds from fits that are queued, running or failed.
 export default defineEventHandler(async (event) => {
@@ -9,5 +9,5 @@ export default defineEventHandler(async (event) => {
   const workspaceId = workspace.id
   const builds = await useDB().select().from(t.setBuilds)
     .where(eq(t.setBuilds.workspaceId, workspaceId)).orderBy(desc(t.setBuilds.createdAt)).limit(50)
-  return { sets: await listSets(useDB(), workspaceId), builds: builds.map(publicSetBuild) }
+  return { sets: await listSets(useDB(), workspaceId), builds: (await withQueuePlaces(useDB(), builds)).map(b => publicSetBuild(b)) }
 })

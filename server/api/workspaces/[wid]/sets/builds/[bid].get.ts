@@ -1,6 +1,8 @@
-import { publicSetBuild } from '../../../../../domain/sets/builds'
-// A set build's state and progress (members built / total) and, once done, the new set's id.
+import { publicSetBuild, withQueuePlaces } from '../../../../../domain/sets/builds'
+// A set build's state and progress (members built / total), its place on the queue while it
+// waits and, once done, the new set's id.
 export default defineEventHandler(async (event) => {
   const { build } = await requireSetBuild(event, 'viewer')
-  return publicSetBuild(build)
+  const [withPlace] = await withQueuePlaces(useDB(), [build])
+  return publicSetBuild(withPlace!)
 })
