@@ -1,8 +1,9 @@
 // zod probes whether it may compile its parsers with `new Function`; under the app's
 // Content-Security-Policy (no 'unsafe-eval', server/plugins/security-headers.ts) that probe is
-// refused and reported as a violation on every page. In the browser zod parses without it.
+// refused and reported as a violation. In the browser zod parses without it. Set when this module
+// is loaded (before any plugin runs, the router's first navigation included), not in setup.
 import { z } from 'zod'
 
-export default defineNuxtPlugin(() => {
-  z.config({ jitless: true })
-})
+z.config({ jitless: true })
+
+export default defineNuxtPlugin(() => {})

@@ -169,7 +169,7 @@ mail_stop() {
 # nuxt build unless .output is newer than every source file (SHEAF_FORCE_BUILD=1 forces it).
 build_if_needed() {
   local stamp="$ROOT/.output/nitro.json"
-  if [ "${SHEAF_FORCE_BUILD:-0}" != 1 ] && [ -f "$stamp" ] && [ -z "$(cd "$ROOT" && find pages components stores server shared public app.vue nuxt.config.ts tailwind.config.ts package-lock.json -newer "$stamp" -type f -print -quit 2>/dev/null)" ]; then
+  if [ "${SHEAF_FORCE_BUILD:-0}" != 1 ] && [ -f "$stamp" ] && [ -z "$(cd "$ROOT" && find pages components plugins stores server shared public app.vue nuxt.config.ts tailwind.config.ts package-lock.json -newer "$stamp" -type f -print -quit 2>/dev/null)" ]; then
     log 'build is up to date (.output)'
     return
   fi
