@@ -4,7 +4,7 @@
 // double range; and the all-or-nothing writes: a request that fails leaves no row and queues no
 // job.
 import { Queue } from 'bullmq'
-import { and, count, eq } from 'drizzle-orm'
+import { and, count, eq, sql } from 'drizzle-orm'
 import IORedis from 'ioredis'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { DomainError } from '../../server/domain/errors'
@@ -37,10 +37,12 @@ afterAll(async () => {
 
 /** Rows of the workspace a refused request must not add to. */
 async function rowCounts() {
-  const db = testDB()
-  const n = async (table: typeof t.errorSets | typeof t.studies | typeof t.setBuilds | typeof t.auditEvents) =>
-    (await db.select({ n: count() }).from(table).where(eq(table.workspaceId, ws.id)))[0]!.n
-  return { sets: await n(t.errorSets), studies: await n(t.studies), builds: await n(t.setBuilds), audit: await n(t.auditEvents) }
+  const { rows } = await testDB().execute(sql`select
+    (select count(*) from error_sets where workspace_id = ${ws.id})::int as sets,
+    (select count(*) from studies where workspace_id = ${ws.id})::int as studies,
+    (select count(*) from set_builds where workspace_id = ${ws.id})::int as builds,
+    (select count(*) from audit_events where workspace_id = ${ws.id})::int as audit`)
+  return rows[0]
 }
 
 /** Every job the build-set queue holds in any state. */

@@ -24,7 +24,7 @@ export function setUploads(t: Target): fc.Arbitrary<Attempt> {
     fc.nat({ max: toy.bytes.length - 1 }).map(n => upload(`a file cut after ${n} bytes`, [file(toy.bytes.slice(0, n))], '*')),
     fc.tuple(fc.nat({ max: 15 }), fc.integer({ min: 1, max: 255 })).map(([at, xor]) => {
       const bytes = toy.bytes.slice()
-      bytes[at]! ^= xor
+      bytes[at] = bytes[at]! ^ xor
       return upload(`a file with byte ${at} of its magic changed`, [file(bytes)], '*')
     }),
     fc.tuple(fc.constantFrom('name', 'family', 'provenance') as fc.Arbitrary<'name' | 'family' | 'provenance'>, withUnstorable(words))
