@@ -9,6 +9,8 @@ export default defineNuxtConfig({
   pinia: { storesDirs: ['./stores/**'] },
   tailwindcss: { configPath: 'tailwind.config.ts', viewer: false },
   imports: { dirs: ['stores'] },
+  // The repository keeps no top-level plugins/ folder: app plugins live in stores/plugins/.
+  plugins: ['./stores/plugins/zod-jitless.client.ts'],
   runtimeConfig: {
     databaseUrl: process.env.DATABASE_URL ?? 'postgres://sheaf@127.0.0.1:54329/sheaf',
     redisUrl: process.env.REDIS_URL ?? 'redis://127.0.0.1:63790',

@@ -31,6 +31,9 @@ ensure_packages() {
 
 # npm ci when node_modules is missing or older than the lock file.
 ensure_node_modules() {
+  # A linked node_modules (shared between checkouts) is never reinstalled from here: npm ci would
+  # empty the folder it points to.
+  if [ -L "$ROOT/node_modules" ]; then return; fi
   if [ ! -d "$ROOT/node_modules" ] || [ "$ROOT/package-lock.json" -nt "$ROOT/node_modules/.package-lock.json" ]; then
     log 'installing npm packages (npm ci)'
     (cd "$ROOT" && npm ci)
@@ -169,7 +172,7 @@ mail_stop() {
 # nuxt build unless .output is newer than every source file (SHEAF_FORCE_BUILD=1 forces it).
 build_if_needed() {
   local stamp="$ROOT/.output/nitro.json"
-  if [ "${SHEAF_FORCE_BUILD:-0}" != 1 ] && [ -f "$stamp" ] && [ -z "$(cd "$ROOT" && find pages components plugins stores server shared public app.vue nuxt.config.ts tailwind.config.ts package-lock.json -newer "$stamp" -type f -print -quit 2>/dev/null)" ]; then
+  if [ "${SHEAF_FORCE_BUILD:-0}" != 1 ] && [ -f "$stamp" ] && [ -z "$(cd "$ROOT" && find pages components stores server shared public app.vue nuxt.config.ts tailwind.config.ts package-lock.json -newer "$stamp" -type f -print -quit 2>/dev/null)" ]; then
     log 'build is up to date (.output)'
     return
   fi
