@@ -80,9 +80,9 @@ const tooDeep = (maxDepth: number) => createError({
 const ANSWER_GRACE_MS = 2000
 
 /**
- * Read no more of this request's body. Its answer goes out on the open connection, which is
- * cut ANSWER_GRACE_MS later unless the body has meanwhile arrived in full (Node discards the
- * rest of a body no one read, then keeps the connection for the next request). Cutting it at
+ * Read no more of this request's body. Its answer goes out on the open connection; then the
+ * rest of the body is discarded as it arrives, and the connection is cut ANSWER_GRACE_MS later
+ * unless the body has meanwhile arrived in full (then it stays usable for the next request). Cutting it at
  * once (Connection: close) would reset it while the client is still sending, and the client
  * could lose the answer.
  */
@@ -90,6 +90,9 @@ function stopReading(event: H3Event) {
   const { req, res } = event.node
   req.pause()
   res.once('finish', () => {
+    // Discard what is still arriving (nothing is kept), so a keep-alive connection is left clean
+    // for the client's next request; cut it only if the rest does not come in time.
+    req.resume()
     setTimeout(() => {
       if (!req.complete) req.socket?.destroy()
     }, ANSWER_GRACE_MS).unref()

@@ -6,6 +6,7 @@
 import { Queue } from 'bullmq'
 import { and, count, eq, sql } from 'drizzle-orm'
 import IORedis from 'ioredis'
+import { readFileSync } from 'node:fs'
 import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest'
 import { DomainError } from '../../server/domain/errors'
 import type { QueueSource } from '../../server/domain/jobs/queue'
@@ -180,9 +181,11 @@ describe('deep nesting and numbers beyond the double range', () => {
       method: 'POST', body: text,
       headers: { 'content-type': 'application/json', 'origin': ws.viewer.client.origin!, 'x-forwarded-for': ws.viewer.client.address, 'cookie': [...ws.viewer.client.cookies].map(([k, v]) => `${k}=${v}`).join('; ') }
     })
+    // The body reader refuses it while it arrives, before anything parses it.
     expect(res.status).toBe(400)
-    const body = await res.json() as { data: { fields: Record<string, string> } }
-    expect(Object.values(body.data.fields)).toContain('The document nests deeper than 64 levels')
+    const body = await res.json() as { statusMessage: string, data: { maxDepth: number } }
+    expect(body.statusMessage).toBe('The JSON body is nested deeper than 64 levels of arrays and objects')
+    expect(body.data.maxDepth).toBe(64)
   })
 
   it.each([
@@ -200,6 +203,12 @@ describe('deep nesting and numbers beyond the double range', () => {
   })
 })
 
+/** A small fit the up-front checks accept (samples/fits/minimal-input.json), as a build request. */
+const minimalRequest = () => ({
+  input: JSON.parse(readFileSync(new URL('../../samples/fits/minimal-input.json', import.meta.url), 'utf8')),
+  grid: { x: { count: 40, min: 1e-5, max: 0.98 }, q2: { count: 12, maxGeV2: 1e4 } }
+})
+
 describe('a request that fails leaves no row and queues no job', () => {
   it('a build whose audit event cannot be written leaves no build row and queues nothing', async () => {
     const before = await rowCounts()
@@ -208,7 +217,7 @@ describe('a request that fails leaves no row and queues no job', () => {
     const queues = (() => ({ add })) as unknown as QueueSource
     // A lone surrogate passes a text column (it is stored as U+FFFD) but not the audit event's
     // jsonb detail: the insert and the audit event must fail together.
-    await expect(startSetBuild(testDB(), queues, ws.id, ws.analyst.id, 'lone \uD800 surrogate', { input: {} })).rejects.toThrow()
+    await expect(startSetBuild(testDB(), queues, ws.id, ws.analyst.id, 'lone \uD800 surrogate', minimalRequest())).rejects.toThrow()
     expect(add).not.toHaveBeenCalled()
     expect(await rowCounts()).toEqual(before)
     expect(await buildJobs()).toBe(jobs)
@@ -225,7 +234,7 @@ describe('a request that fails leaves no row and queues no job', () => {
 
   it('when the queue is down, a build and a run answer 503 and their rows say why', async () => {
     const down = (() => ({ add: async () => { throw new Error('connect ECONNREFUSED') } })) as unknown as QueueSource
-    const build = startSetBuild(testDB(), down, ws.id, ws.analyst.id, 'queue down', { input: {} })
+    const build = startSetBuild(testDB(), down, ws.id, ws.analyst.id, 'queue down', minimalRequest())
     await expect(build).rejects.toMatchObject({ statusCode: 503 })
     const [row] = await testDB().select().from(t.setBuilds).where(and(eq(t.setBuilds.workspaceId, ws.id), eq(t.setBuilds.name, 'queue down')))
     expect(row).toMatchObject({ state: 'failed', error: 'The job queue is unavailable', jobId: null })

@@ -124,7 +124,10 @@ export async function refused(t: Target, attempt: Attempt) {
   const body = res.body as ErrorBody | null
   const places = placesIn(body)
   const where = attempt.where
-  const located = where === null ? places.length > 0 : where === '*' ? places.length > 0 : places.some(p => p.includes(where))
+  // A body nested past the reader's depth limit is refused while it arrives, before any field
+  // exists; the answer then names the limit (data.maxDepth) instead of a field.
+  const tooDeep = typeof (body?.data as { maxDepth?: unknown } | undefined)?.maxDepth === 'number'
+  const located = tooDeep || (where === null ? places.length > 0 : where === '*' ? places.length > 0 : places.some(p => p.includes(where)))
   if (res.status >= 500) tally.serverErrors++
   if (res.status >= 400 && res.status < 500) tally.refused++
   if (where !== null) tally.mustLocate++
