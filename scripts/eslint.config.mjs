@@ -1,7 +1,7 @@
 // @ts-check
-// ESLint on Nuxt's generated flat config (`npx nuxt prepare` writes .nuxt/eslint.config.mjs).
+// ESLint on Nuxt's generated flat config (run from the repository root with --config) (`npx nuxt prepare` writes .nuxt/eslint.config.mjs).
 // The rules are about correctness only: no stylistic rules, so linting never reformats a file.
-import withNuxt from './.nuxt/eslint.config.mjs'
+import withNuxt from '../.nuxt/eslint.config.mjs'
 
 export default withNuxt(
   {
