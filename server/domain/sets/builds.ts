@@ -1,4 +1,4 @@
-import { eq, sql } from 'drizzle-orm'
+import { and, eq, inArray, sql } from 'drizzle-orm'
 import type { DB } from '../../database/client'
 import { tables as t } from '../../database/client'
 import type { SetBuild } from '../../database/schema'
@@ -11,6 +11,7 @@ import { buildSize, memberIssues, type BuildSize } from '../../../shared/physics
 import { compileInput, type InputModel } from '../../../shared/physics/input/model'
 import { parseInputDocument } from '../../../shared/physics/input/parse'
 import { BUILD_SET_QUEUE, type BuildSetPayload, type SetBuildRequest } from '../../../shared/queue/workflow'
+import { assertSetNameFree } from './library'
 import { assertQuota } from './store'
 
 /**
@@ -150,7 +151,9 @@ export async function withQueuePlaces<T extends SetBuild>(db: DB, builds: T[]): 
  * back with its queue place.
  */
 export async function startSetBuild(db: DB, queues: QueueSource, workspaceId: string, userId: string, name: string, request: SetBuildRequest, limits: Limits = LIMITS) {
-  const bytes = fileBytes(requestedBuildSize(request))
+  const model = modelOf(request)
+  await assertBuildNameFree(db, workspaceId, name, model.version)
+  const bytes = fileBytes(buildSize(model))
   await assertQuota(db, workspaceId, bytes, `the set this build writes (about ${formatBytes(bytes)})`, limits.workspaceQuotaBytes)
   const row = await db.transaction(async (tx) => {
     const [inserted] = await tx.insert(t.setBuilds).values({ workspaceId, name, request, requestedBy: userId }).returning()
@@ -163,6 +166,25 @@ export async function startSetBuild(db: DB, queues: QueueSource, workspaceId: st
   const [queued] = await db.select().from(t.setBuilds).where(eq(t.setBuilds.id, row.id))
   const [withPlace] = await withQueuePlaces(db, [queued!])
   return withPlace!
+}
+
+/**
+ * 409 before anything is queued when the set a build would write, `name` version `version`, is
+ * already in the workspace's library or is being written by one of its queued or running builds
+ * (a name taken only at the end would fail the build after all its work).
+ */
+async function assertBuildNameFree(db: DB, workspaceId: string, name: string, version: string) {
+  await assertSetNameFree(db, workspaceId, name, version)
+  const pending = await db.select({ id: t.setBuilds.id, request: t.setBuilds.request }).from(t.setBuilds)
+    .where(and(eq(t.setBuilds.workspaceId, workspaceId), eq(t.setBuilds.name, name), inArray(t.setBuilds.state, ['queued', 'running'])))
+  const clash = pending.find((b) => {
+    try { return modelOf(b.request).version === version } catch { return false }
+  })
+  if (clash) {
+    fail(409, `A build of ${name} version ${version} is already queued or running in this workspace (build ${clash.id}); wait for it or choose another name`, {
+      fields: { name: `${name} version ${version} is already being built` }
+    })
+  }
 }
 
 /** Cancels a queued or running build (cancelRow, with its audit event); the row as it is now. */

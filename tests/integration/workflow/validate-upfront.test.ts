@@ -69,6 +69,19 @@ describe('a set build the evolution would refuse', () => {
     expect(res.status, JSON.stringify(res.body)).toBe(202)
     await ws.analyst.client.post(`${builds()}/${res.body.id}/cancel`, {})
   })
+
+  it('refuses a second build of the same name and version while the first waits (409), storing nothing', async () => {
+    const body = { name: 'twin', input: minimal, grid: { x: { count: 20, min: 1e-9, max: 0.98 }, q2: { count: 4, maxGeV2: 1e4 } } }
+    const first = await ws.analyst.client.post(builds(), body)
+    expect(first.status, JSON.stringify(first.body)).toBe(202)
+    const before = await traces()
+    const second = await ws.analyst.client.post(builds(), body)
+    expect(second.status, JSON.stringify(second.body)).toBe(409)
+    expect(second.body.statusMessage).toMatch(/twin version 1 is already queued or running/)
+    expect(second.body.data.fields.name).toMatch(/already being built/)
+    expect(await traces()).toEqual(before)
+    await ws.analyst.client.post(`${builds()}/${first.body.id}/cancel`, {})
+  })
 })
 
 describe('a measurement the χ² could not use', () => {
