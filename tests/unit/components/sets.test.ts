@@ -2,6 +2,7 @@
 import { flushPromises, mount } from '@vue/test-utils'
 import { afterEach, describe, expect, it, vi } from 'vitest'
 import { dateTimeText } from '#shared/utils/dates'
+import SetsBuildList from '~/components/sets/BuildList.vue'
 import SetsSummary from '~/components/sets/Summary.vue'
 import SetsUploadForm from '~/components/sets/UploadForm.vue'
 
@@ -102,5 +103,28 @@ describe('SetsSummary', () => {
     const text = mount(SetsSummary, { props: { set: { ...set, kind: 'replicas', memberCount: 101, target: { type: 'proton' as const } } }, global: { stubs: { NuxtLink: true } } }).text()
     expect(text).toContain('Monte Carlo, 100 replicas')
     expect(text).toContain('proton')
+  })
+})
+
+describe('SetsBuildList', () => {
+  const build = (over: Record<string, unknown>) => ({
+    id: 'b1', name: 'Fit-A', state: 'queued' as const, progress: { done: 0, total: 0 }, error: null, setId: null,
+    createdAt: '2026-12-04T04:00:00.000Z', cancelRequested: false, ...over
+  })
+  const textOf = (b: ReturnType<typeof build>) => mount(SetsBuildList, {
+    props: { builds: [b], workspaceId: 'w', canCancel: false }, global: { stubs: { NuxtLink: true, UiProgress: true, UiNotice: true } }
+  }).text()
+
+  it('says where a waiting build stands on the queue', () => {
+    expect(textOf(build({ queuePlace: 1 }))).toContain('queued (next to start)')
+    expect(textOf(build({ queuePlace: 2 }))).toContain('(2nd in the queue)')
+    expect(textOf(build({ queuePlace: 3 }))).toContain('(3rd in the queue)')
+    expect(textOf(build({ queuePlace: 11 }))).toContain('(11th in the queue)')
+    expect(textOf(build({ queuePlace: 22 }))).toContain('(22nd in the queue)')
+  })
+
+  it('gives no place to a running build or one whose place is unknown', () => {
+    expect(textOf(build({ state: 'running', queuePlace: 4 }))).not.toContain('in the queue')
+    expect(textOf(build({ queuePlace: null }))).not.toContain('in the queue')
   })
 })
