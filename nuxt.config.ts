@@ -7,6 +7,8 @@ export default defineNuxtConfig({
   modules: ['@nuxtjs/tailwindcss', '@pinia/nuxt', '@nuxt/eslint'],
   css: ['@fontsource/public-sans/400.css', '@fontsource/public-sans/600.css', '@fontsource/public-sans/700.css'],
   pinia: { storesDirs: ['./stores/**'] },
+  // Our ESLint config lives in scripts/; never write one at the top level.
+  eslint: { config: { autoInit: false } },
   tailwindcss: { configPath: 'tailwind.config.ts', viewer: false },
   imports: { dirs: ['stores'] },
   // The repository keeps no top-level plugins/ folder: app plugins live in stores/plugins/.

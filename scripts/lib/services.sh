@@ -34,9 +34,15 @@ ensure_node_modules() {
   # A linked node_modules (shared between checkouts) is never reinstalled from here: npm ci would
   # empty the folder it points to.
   if [ -L "$ROOT/node_modules" ]; then return; fi
-  if [ ! -d "$ROOT/node_modules" ] || [ "$ROOT/package-lock.json" -nt "$ROOT/node_modules/.package-lock.json" ]; then
+  # The install is stamped with the lock file's hash, so a checkout that only touched the lock
+  # file's date (a merge, a copy) does not reinstall; a changed lock file does.
+  local want have stamp="$ROOT/node_modules/.sheaf-lock.sha256"
+  want=$(sha256sum "$ROOT/package-lock.json" | cut -d' ' -f1)
+  have=$(cat "$stamp" 2>/dev/null || true)
+  if [ ! -d "$ROOT/node_modules" ] || [ "$want" != "$have" ]; then
     log 'installing npm packages (npm ci)'
     (cd "$ROOT" && npm ci)
+    printf '%s\n' "$want" >"$stamp"
   fi
 }
 
