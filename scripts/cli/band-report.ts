@@ -21,6 +21,8 @@ export interface BandReportRow extends Band<number, number | null> {
 export interface BandReport {
   prescription: string
   clPercent: number
+  /** How the interval was made, e.g. "percentile 5–95 %" or "Hessian, rescaled from 90 % to 68 % CL (Gaussian)". */
+  interval: string
   rows: BandReportRow[]
 }
 
@@ -46,13 +48,13 @@ export function bandReport(result: BandResult): BandReport {
     }
     return row
   })
-  return { prescription: result.prescription, clPercent: result.clPercent, rows }
+  return { prescription: result.prescription, clPercent: result.clPercent, interval: result.interval.label, rows }
 }
 
 /** CSV columns of band tables (one line per set and bin). */
-export const BAND_CSV_HEADER = ['set', 'bin', 'central', 'plus', 'minus', 'relPlus', 'relMinus', 'pdfPlus', 'pdfMinus', 'alphas', 'prescription', 'clPercent'] as const
+export const BAND_CSV_HEADER = ['set', 'bin', 'central', 'plus', 'minus', 'relPlus', 'relMinus', 'pdfPlus', 'pdfMinus', 'alphas', 'prescription', 'clPercent', 'interval'] as const
 
 /** The CSV lines of one set's band, in BAND_CSV_HEADER order. */
 export function bandCsvRows(set: string, report: BandReport): CsvCell[][] {
-  return report.rows.map(r => [set, r.bin, r.central, r.plus, r.minus, r.relPlus, r.relMinus, r.pdfPlus, r.pdfMinus, r.alphas, report.prescription, report.clPercent])
+  return report.rows.map(r => [set, r.bin, r.central, r.plus, r.minus, r.relPlus, r.relMinus, r.pdfPlus, r.pdfMinus, r.alphas, report.prescription, report.clPercent, report.interval])
 }
