@@ -4,7 +4,7 @@
  * and each set's band with its default prescription at 68% CL.
  */
 import { computeBands, prescriptionsFor } from '../../../shared/physics/uncertainty'
-import { buildPlan, evaluatePlan, parseStudySpec, resultUnit, type StudySpec } from '../../../shared/physics/study'
+import { buildPlan, evaluatePlan, memberAlphasFunctions, parseStudySpec, resultUnit, type StudySpec } from '../../../shared/physics/study'
 import type { ErrorSet } from '../../../shared/physics/types'
 import { outputFormat, parseVerbArgs, stringOption, type VerbSpec } from '../args'
 import { BAND_CSV_HEADER, bandCsvRows, bandReport, type BandReport } from '../band-report'
@@ -77,7 +77,8 @@ function computeSet(spec: StudySpec, file: string, set: ErrorSet, outside: 'erro
   let outsideBins: ComputedSet['outsideBins']
   try {
     const plan = buildPlan(spec, set, { outside, second: second?.set, alphas: setAlphas(header) })
-    values = evaluatePlan(plan, set.members, second?.set.members)
+    // Each member with its own α_s(M_Z) where the kernel has α_s (gg → H).
+    values = evaluatePlan(plan, set.members, second?.set.members, { memberAlphas: memberAlphasFunctions({ ...header, memberCount: set.members.length }) })
     if (plan.outsideBins.length > 0) outsideBins = plan.outsideBins.map(i => ({ bin: i.bin, message: i.message }))
   } catch (e) {
     const hint = outside === 'error' && /outside|below|above/.test((e as Error).message) ? ' (--outside freeze evaluates such bins at the grid edge)' : ''

@@ -41,8 +41,10 @@ const MASS: VariableSpec = { name: 'm', label: 'mass M in GeV', gevPower: 1, che
 
 /** What the caller supplies beyond the spec: α_s for kernels that need it. */
 export interface KernelContext {
-  /** α_s(μ²), μ² in GeV²; needed by the gluon-fusion kernels. */
+  /** α_s(μ²), μ² in GeV²; needed by the gluon-fusion kernels (the central member's α_s). */
   alphas?: (q2GeV2: number) => number
+  /** κ_R in μ_R = κ_R μ for kernels with α_s (default 1); the study sets it from its spec. */
+  renormalisationScaleFactor?: number
 }
 
 /** The term at a kinematic point (variable name → value). */
@@ -65,6 +67,12 @@ export interface KernelDefinition {
   /** Words for the result, e.g. "d²σ/dM dy". */
   quantity: string
   needsAlphas?: boolean
+  /**
+   * For kernels proportional to α_s(μ_R²)^power with one μ_R per study (gg → H: power 2,
+   * μ_R = κ_R M_H): the power and μ_R² in GeV² for the given options and κ_R. The plan uses it to
+   * give each member its own α_s (see shared/physics/README.md, "Higgs").
+   */
+  alphasScaling?: { power: number, mu2GeV2: (options: Record<string, unknown>, renormalisationScaleFactor: number) => number }
   /**
    * For totals and luminosities: the mass of the produced system at a point, whose whole
    * rapidity range each bin integrates over (within the grid's x range).
@@ -147,12 +155,13 @@ function higgs(id: string, total: boolean): KernelDefinition {
   return {
     id, title: `gg → H (heavy-top limit)${total ? ', total' : ''}`, composite: false, kind: 'bilinear', optionsSchema: collider,
     variables: () => total ? [] : [RAPIDITY], crossSection: true, gevPower: 0, quantity: total ? 'σ' : 'dσ/dy', needsAlphas: true,
+    alphasScaling: { power: 2, mu2GeV2: (_o, kappaR) => (kappaR * MH_GEV) ** 2 },
     fullRapidityMass: total ? () => MH_GEV : undefined,
     sqrtS: o => opt(o).sqrtSGeV,
     prepare: (o, context) => {
       const alphas = context.alphas
       if (!alphas) throw new RangeError('the gluon-fusion kernel needs α_s: pass an alphas(q2GeV2) function when building the study')
-      return p => higgsTerm(p.y!, { ...opt(o), alphas })
+      return p => higgsTerm(p.y!, { ...opt(o), alphas, renormalisationScaleFactor: context.renormalisationScaleFactor })
     }
   }
 }

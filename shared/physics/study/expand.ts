@@ -123,7 +123,7 @@ function expandPart(spec: StudySpec, def: KernelDefinition, options: Record<stri
   const a2 = source2 === 'second' ? axes.second! : axes.main
   const r1 = axesRange(a1)
   const r2 = axesRange(a2)
-  const evaluate = def.prepare(options, context)
+  const evaluate = def.prepare(options, { ...context, renormalisationScaleFactor: spec.renormalisationScaleFactor ?? 1 })
   const variables = def.variables(options)
   const kappa2 = spec.scaleFactor * spec.scaleFactor
   const bins: ExpandedBin[] = spec.bins.map((row, index) => {

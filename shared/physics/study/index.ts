@@ -13,10 +13,11 @@ export type { StudyAxes, ExpandedBin, DensitySource, ExpandedPart, ReachIssue, E
 export { expandStudy, checkReach } from './expand'
 
 // Evaluation
-export type { LinearPlanPart, BilinearPlanPart, PlanPart, Plan, PlanOptions } from './plan'
+export type { LinearPlanPart, BilinearPlanPart, PlanPart, Plan, PlanOptions, EvaluateOptions } from './plan'
 export { StudyReachError, buildPlan, evaluatePlan } from './plan'
 export type { SetMembers, DirectOptions } from './direct'
 export { evaluateDirect } from './direct'
+export { memberAlphasFunctions } from './member-alphas'
 export type { ScaleVariation } from './scale'
 export { scaleVariation } from './scale'
 
