@@ -76,7 +76,7 @@ function computeSet(spec: StudySpec, file: string, set: ErrorSet, outside: 'erro
   let values: Float64Array
   let outsideBins: ComputedSet['outsideBins']
   try {
-    const plan = buildPlan(spec, set, { outside, second: second?.set, alphas: setAlphas(header) })
+    const plan = buildPlan(spec, set, { outside, second: second?.set, alphas: setAlphas(header), scheme: header.scheme })
     // Each member with its own α_s(M_Z) where the kernel has α_s (gg → H).
     values = evaluatePlan(plan, set.members, second?.set.members, { memberAlphas: memberAlphasFunctions({ ...header, memberCount: set.members.length }) })
     if (plan.outsideBins.length > 0) outsideBins = plan.outsideBins.map(i => ({ bin: i.bin, message: i.message }))

@@ -1,11 +1,13 @@
 import { z } from 'zod'
+import { activeFlavours } from '../alphas'
+import type { FlavourScheme } from '../types'
 import type { CombineOp } from './ratios'
 import { ccCrossSectionTerm, ccStructureTerm } from './dis-charged'
 import { ncTerm } from './dis-neutral'
 import { drellYanTerm } from './drell-yan'
 import { hadronSchema } from './hadrons'
 import { higgsTerm } from './higgs'
-import { MH_GEV } from '../constants'
+import { MH_GEV, PROTON_MASS_GEV } from '../constants'
 import type { LuminosityChannel } from './luminosity'
 import { luminosityTerm } from './luminosity'
 import type { Term } from './terms'
@@ -45,6 +47,16 @@ export interface KernelContext {
   alphas?: (q2GeV2: number) => number
   /** κ_R in μ_R = κ_R μ for kernels with α_s (default 1); the study sets it from its spec. */
   renormalisationScaleFactor?: number
+  /**
+   * The set's flavour scheme: charged-current DIS opens top production where it has six active
+   * flavours at Q² (as the other kernels use a top density wherever the set has one).
+   */
+  scheme?: FlavourScheme
+}
+
+/** Whether a top can be produced at Q² in charged-current DIS: six active flavours in the set's scheme. */
+function topOpen(context: KernelContext, q2GeV2: number): boolean {
+  return context.scheme !== undefined && Number.isFinite(q2GeV2) && q2GeV2 > 0 && activeFlavours(q2GeV2, context.scheme) >= 6
 }
 
 /** The term at a kinematic point (variable name → value). */
@@ -136,7 +148,7 @@ function cc(id: string, structure: 'F2' | 'xF3' | '2xF1', quantity: string): Ker
   return {
     id, title: `DIS charged current (ν/ν̄), ${quantity}`, composite: false, kind: 'linear', optionsSchema: ccOptions,
     variables: () => [X, Q2], crossSection: false, gevPower: 0, quantity,
-    prepare: o => p => ccStructureTerm(structure, p.x!, p.q2!, opt(o))
+    prepare: (o, context) => p => ccStructureTerm(structure, p.x!, p.q2!, { ...opt(o), topOpen: topOpen(context, p.q2!) })
   }
 }
 
@@ -212,7 +224,7 @@ const singles: KernelDefinition[] = [
   {
     id: 'dis-cc-d2sigma', title: 'DIS charged current (ν/ν̄), d²σ/dx dy', composite: false, kind: 'linear', optionsSchema: ccXsecOptions,
     variables: () => [X, INELASTICITY], crossSection: true, gevPower: 0, quantity: 'd²σ/dx dy',
-    prepare: o => p => ccCrossSectionTerm(p.x!, p.y!, opt(o))
+    prepare: (o, context) => p => ccCrossSectionTerm(p.x!, p.y!, { ...opt(o), topOpen: topOpen(context, 2 * PROTON_MASS_GEV * opt(o).beamEnergyGeV * p.x! * p.y!) })
   },
   {
     id: 'drell-yan', title: 'Drell–Yan γ* → ℓ⁺ℓ⁻', composite: false, kind: 'bilinear', optionsSchema: collider,
