@@ -10,7 +10,7 @@ export { BIN_COLUMNS, binRowSchema, studySpecSchema, StudySpecError, checkStudyS
 
 // Expansion into quadrature points and reach
 export type { StudyAxes, ExpandedBin, DensitySource, ExpandedPart, ReachIssue, ExpandedStudy } from './expand'
-export { expandStudy, checkReach } from './expand'
+export { expandStudy, checkReach, variableNodes, LOG_VARIABLES } from './expand'
 
 // Evaluation
 export type { LinearPlanPart, BilinearPlanPart, PlanPart, Plan, PlanOptions, EvaluateOptions } from './plan'
@@ -18,6 +18,8 @@ export { StudyReachError, buildPlan, evaluatePlan } from './plan'
 export type { SetMembers, DirectOptions } from './direct'
 export { evaluateDirect } from './direct'
 export { memberAlphasFunctions } from './member-alphas'
+export type { QuadratureErrors } from './quadrature-error'
+export { quadratureErrors } from './quadrature-error'
 export type { ScaleVariation } from './scale'
 export { scaleVariation } from './scale'
 
