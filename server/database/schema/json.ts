@@ -17,6 +17,9 @@ export interface SpecSnapshot {
 
 /** The engine's scale variation (study/scale.ts) as JSON: central member at μ_F = κ μ. */
 export interface ScaleVariationJson {
+  /** Which variation up/down are: '3-point μ_F' or '7-point μ_F, μ_R' (kernels with α_s); absent in rows stored before it was recorded. */
+  variation?: string
+  label?: string
   kappas: [number, number, number]
   values: number[][]
   nominal: number[]

@@ -115,6 +115,7 @@ function evaluateScaleVariations(spec: StudySpec, set: ErrorSet, partner: ErrorS
     })
     const bins = spec.bins.length
     return {
+      variation: v.variation, label: v.label,
       kappas: v.kappas,
       values: [0, 1, 2].map(k => Array.from(v.values.subarray(k * bins, (k + 1) * bins))),
       nominal: Array.from(v.nominal), up: Array.from(v.up), down: Array.from(v.down)

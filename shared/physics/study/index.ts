@@ -20,8 +20,8 @@ export { evaluateDirect } from './direct'
 export { memberAlphasFunctions } from './member-alphas'
 export type { QuadratureErrors } from './quadrature-error'
 export { quadratureErrors } from './quadrature-error'
-export type { ScaleVariation } from './scale'
-export { scaleVariation } from './scale'
+export type { ScaleVariation, ScalePoint } from './scale'
+export { scaleVariation, studyHasAlphas } from './scale'
 
 // Benchmark study (timed by scripts/cli/bench.ts)
 export { benchmarkSpec } from './benchmark'

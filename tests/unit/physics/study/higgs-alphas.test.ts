@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { makeAlphas } from '../../../../shared/physics/alphas'
 import { toyErrorSet, toyQ2Nodes, toyXNodes } from '../../../../shared/physics/sets'
-import { buildPlan, evaluatePlan, memberAlphasFunctions, parseStudySpec } from '../../../../shared/physics/study'
+import { buildPlan, evaluatePlan, memberAlphasFunctions, parseStudySpec, scaleVariation } from '../../../../shared/physics/study'
 import { computeBands } from '../../../../shared/physics/uncertainty'
 import type { ErrorSet, FlavourScheme } from '../../../../shared/physics/types'
 import { expectClose } from '../close'
@@ -87,5 +87,32 @@ describe('gg → H: each member runs with its own α_s(M_Z)', () => {
     const inv2MH = invMH + (23 / 3) / (4 * Math.PI) * Math.log(4)
     expectClose(v2[0]! / v1[0]!, (invMH / inv2MH) ** 2, 1e-12)
     expectClose(v2[0]! / v1[0]!, 0.833334, 1e-6)
+  })
+
+  it('scale variation of gg → H is the 7-point μ_F, μ_R variation; μ_R moves α_s, μ_F the densities', () => {
+    const v = scaleVariation(spec, set, set.members[0]!, { alphas: centralAlphas })
+    expect(v.variation).toBe('7-point μ_F, μ_R')
+    // common practice: (κ_F, κ_R) ∈ {(1,1), (½,½), (½,1), (1,½), (1,2), (2,1), (2,2)}
+    expect(v.points).toEqual([{ muF: 1, muR: 1 }, { muF: 0.5, muR: 0.5 }, { muF: 0.5, muR: 1 }, { muF: 1, muR: 0.5 }, { muF: 1, muR: 2 }, { muF: 2, muR: 1 }, { muF: 2, muR: 2 }])
+    const nominal = v.nominal[0]!
+    // (1, 2): μ_F fixed, so the ratio is (α_s(4M_H²)/α_s(M_H²))² = 0.833334 (worked above)
+    expectClose(v.pointValues[4 * 2]! / nominal, 0.833334, 1e-6)
+    // (1, ½): 1/α_s(M_H²/4) = 8.861362 − 0.845770 = 8.015593 → (8.861362/8.015593)² = 1.222165
+    const invMH = 1 / asMH(0.118)
+    expectClose(v.pointValues[3 * 2]! / nominal, (invMH / (invMH - (23 / 3) / (4 * Math.PI) * Math.log(4))) ** 2, 1e-12)
+    expectClose(v.pointValues[3 * 2]! / nominal, 1.222165, 1e-6)
+    // the band is the envelope: μ_R = M_H/2 alone already raises σ by 22 %
+    expect(v.up[0]!).toBeGreaterThanOrEqual(v.pointValues[3 * 2]! - nominal)
+    expect(v.down[0]!).toBeGreaterThanOrEqual(nominal - v.pointValues[4 * 2]!)
+    // the μ_F-only rows (κ_R = 1) are kept for the 3-row view
+    expect(v.kappas).toEqual([0.5, 1, 2])
+    expect(v.values[2 * 2]).toBe(v.pointValues[5 * 2])
+    expect(v.values[0]).toBe(v.pointValues[2 * 2])
+  })
+
+  it('a kernel without α_s keeps the 3-point μ_F variation', () => {
+    const w = scaleVariation(parseStudySpec({ kernel: 'w-plus', options: { sqrtSGeV: 13000 }, bins: [{ y: 0 }] }), set, set.members[0]!)
+    expect(w.variation).toBe('3-point μ_F')
+    expect(w.points).toHaveLength(3)
   })
 })
