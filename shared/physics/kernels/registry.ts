@@ -124,9 +124,15 @@ const disTarget = z.discriminatedUnion('type', [
 ])
 const sqrtS = z.number().positive('√s must be positive').max(1e6)
 const ckm = z.enum(['pdg', 'diagonal'])
-const ncOptions = z.strictObject({ target: disTarget.optional() })
-const ncEnergyOptions = z.strictObject({ target: disTarget.optional(), sqrtSGeV: sqrtS })
-const ncXsecOptions = z.strictObject({ target: disTarget.optional(), sqrtSGeV: sqrtS, unit: crossSectionUnitSchema.optional() })
+// Neutral current: 'photon' exchange (default) or 'gamma-z' (γ, γ/Z and Z); the lepton's charge
+// sets the sign of xF̃₃ in the reduced and differential cross-sections with γ/Z.
+const exchange = z.enum(['photon', 'gamma-z'])
+const lepton = z.enum(['electron', 'positron'])
+const needsLepton = (o: { exchange?: string, lepton?: string }) => o.exchange !== 'gamma-z' || o.lepton !== undefined
+const leptonMessage = { message: 'γ/Z exchange needs the lepton: electron or positron (the sign of xF̃₃)', path: ['lepton'] }
+const ncOptions = z.strictObject({ target: disTarget.optional(), exchange: exchange.optional(), lepton: lepton.optional() })
+const ncEnergyOptions = z.strictObject({ target: disTarget.optional(), sqrtSGeV: sqrtS, exchange: exchange.optional(), lepton: lepton.optional() }).refine(needsLepton, leptonMessage)
+const ncXsecOptions = z.strictObject({ target: disTarget.optional(), sqrtSGeV: sqrtS, unit: crossSectionUnitSchema.optional(), exchange: exchange.optional(), lepton: lepton.optional() }).refine(needsLepton, leptonMessage)
 const ccOptions = z.strictObject({ beam: z.enum(['neutrino', 'antineutrino']), target: disTarget.optional(), ckm: ckm.optional() })
 const ccXsecOptions = ccOptions.extend({ beamEnergyGeV: z.number().positive('the beam energy must be positive').max(1e7), unit: crossSectionUnitSchema.optional() })
 const collider = z.strictObject({ sqrtSGeV: sqrtS, beam1: hadronSchema.optional(), beam2: hadronSchema.optional(), unit: crossSectionUnitSchema.optional() })
@@ -138,7 +144,7 @@ const opt = (o: Record<string, unknown>) => o as any
 
 function nc(id: string, observable: 'F2' | 'FL' | '2xF1' | 'reduced' | 'd2sigma', quantity: string, schema: z.ZodType): KernelDefinition {
   return {
-    id, title: `DIS neutral current (γ exchange), ${quantity}`, composite: false, kind: 'linear', optionsSchema: schema,
+    id, title: `DIS neutral current (γ, or γ/Z with exchange: gamma-z), ${quantity}`, composite: false, kind: 'linear', optionsSchema: schema,
     variables: () => [X, Q2], crossSection: observable === 'd2sigma', gevPower: observable === 'd2sigma' ? 2 : 0, quantity,
     prepare: o => p => ncTerm(observable, p.x!, p.q2!, opt(o))
   }
