@@ -49,4 +49,4 @@ export { userWeightRowSchema, userKernelOptionsSchema, userKernelVariables, buil
 
 // Catalogue used by studies
 export type { VariableName, VariableSpec, KernelContext, PointEvaluator, KernelDefinition, CompositePart, CompositeDefinition, AnyKernelDefinition } from './registry'
-export { KERNEL_IDS, kernelDefinition, kernelCatalogue, kernelKind } from './registry'
+export { KERNEL_IDS, kernelDefinition, kernelCatalogue, kernelKind, kernelLabel } from './registry'

@@ -111,6 +111,8 @@ export interface CompositeDefinition {
   op: CombineOp
   optionsSchema: z.ZodType
   parts: (options: Record<string, unknown>) => [CompositePart, CompositePart]
+  /** Words for what the composite divides by, for the given options (labels and exports). */
+  describe?: (options: Record<string, unknown>) => string
 }
 
 export type AnyKernelDefinition = KernelDefinition | CompositeDefinition
@@ -215,6 +217,9 @@ const ccRatioOptions = z.strictObject({
 const nuclearBases = ['drell-yan', 'w-plus', 'w-minus', 'z', 'higgs-ggf', 'dis-nc-f2', 'dis-cc-f2'] as const
 const nuclearRatioOptions = z.looseObject({
   base: z.enum(nuclearBases),
+  // 'proton' (default): per-nucleon σ_A over the free proton's; 'isospin': over the free
+  // nucleons' (Z·p + N·n)/A from the baseline set, so that isospin does not count as a nuclear effect.
+  denominator: z.enum(['proton', 'isospin']).optional(),
   nucleus: z.strictObject({ z: z.number().int().min(1), a: z.number().int().min(1).max(300) }).refine(n => n.z <= n.a, { message: 'a nucleus needs Z ≤ A', path: ['z'] })
 })
 
@@ -269,15 +274,34 @@ const composites: CompositeDefinition[] = [
   {
     id: 'nuclear-ratio', title: 'nuclear ratio σ_pA/(A σ_pp) per nucleon', composite: true, op: 'ratio', optionsSchema: nuclearRatioOptions,
     parts: o => {
-      const { base, nucleus, ...rest } = opt(o)
+      const { base, nucleus, denominator = 'proton', ...rest } = opt(o)
       const target = { type: 'nucleus', z: nucleus.z, a: nucleus.a }
+      // The denominator reads the baseline (free-proton) set: a free proton, or the free nucleons
+      // of the same nucleus (Z p + N n)/A by isospin (see shared/physics/README.md, "Nuclear targets and isospin").
+      const free = denominator === 'isospin' ? target : { type: 'proton' }
       const dis = String(base).startsWith('dis-')
       return dis
-        ? [{ kernel: base, options: { ...rest, target }, useSecond: true }, { kernel: base, options: { ...rest, target: { type: 'proton' } }, useSecond: false }]
-        : [{ kernel: base, options: { ...rest, beam2: target }, useSecond: true }, { kernel: base, options: { ...rest, beam2: { type: 'proton' } }, useSecond: false }]
+        ? [{ kernel: base, options: { ...rest, target }, useSecond: true }, { kernel: base, options: { ...rest, target: free }, useSecond: false }]
+        : [{ kernel: base, options: { ...rest, beam2: target }, useSecond: true }, { kernel: base, options: { ...rest, beam2: free }, useSecond: false }]
+    },
+    describe: o => {
+      const { nucleus, denominator = 'proton' } = opt(o)
+      const n = nucleus ? `Z = ${nucleus.z}, A = ${nucleus.a}` : 'the nucleus'
+      return denominator === 'isospin'
+        ? `per nucleon, over the free nucleons (Z·p + N·n)/A of ${n} (isospin-corrected)`
+        : `per nucleon, over a free proton (isospin not corrected for ${n})`
     }
   }
 ]
+
+/**
+ * A kernel's title with what a composite divides by, e.g. "nuclear ratio σ_pA/(A σ_pp) per
+ * nucleon — per nucleon, over the free nucleons (Z·p + N·n)/A of Z = 82, A = 208 (isospin-corrected)".
+ */
+export function kernelLabel(id: string, options: Record<string, unknown>): string {
+  const def = kernelDefinition(id)
+  return def.composite && def.describe ? `${def.title} — ${def.describe(options)}` : def.title
+}
 
 /** Whether a kernel gives linear or bilinear forms for the given options. */
 export function kernelKind(def: KernelDefinition, options: Record<string, unknown>): 'linear' | 'bilinear' {
