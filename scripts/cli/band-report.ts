@@ -15,12 +15,21 @@ export interface BandReportRow extends Band<number, number | null> {
   pdfPlus?: number
   pdfMinus?: number
   alphas?: number
+  /** Quadrature error estimate of the bin's central value (compute only). */
+  quadratureError?: number
+  /** Scale variation of the central member about its nominal value, apart from the PDF band (compute only). */
+  scaleUp?: number
+  scaleDown?: number
 }
 
 /** A set's band as printed: prescription, CL and the rows. */
 export interface BandReport {
   prescription: string
   clPercent: number
+  /** How the interval was made, e.g. "percentile 5–95 %" or "Hessian, rescaled from 90 % to 68 % CL (Gaussian)". */
+  interval: string
+  /** Which scale variation scaleUp/scaleDown are (compute only), e.g. '7-point μ_F, μ_R'. */
+  scaleVariation?: string
   rows: BandReportRow[]
 }
 
@@ -46,13 +55,13 @@ export function bandReport(result: BandResult): BandReport {
     }
     return row
   })
-  return { prescription: result.prescription, clPercent: result.clPercent, rows }
+  return { prescription: result.prescription, clPercent: result.clPercent, interval: result.interval.label, rows }
 }
 
 /** CSV columns of band tables (one line per set and bin). */
-export const BAND_CSV_HEADER = ['set', 'bin', 'central', 'plus', 'minus', 'relPlus', 'relMinus', 'pdfPlus', 'pdfMinus', 'alphas', 'prescription', 'clPercent'] as const
+export const BAND_CSV_HEADER = ['set', 'bin', 'central', 'plus', 'minus', 'relPlus', 'relMinus', 'pdfPlus', 'pdfMinus', 'alphas', 'prescription', 'clPercent', 'interval', 'quadratureError', 'scaleUp', 'scaleDown', 'scaleVariation'] as const
 
 /** The CSV lines of one set's band, in BAND_CSV_HEADER order. */
 export function bandCsvRows(set: string, report: BandReport): CsvCell[][] {
-  return report.rows.map(r => [set, r.bin, r.central, r.plus, r.minus, r.relPlus, r.relMinus, r.pdfPlus, r.pdfMinus, r.alphas, report.prescription, report.clPercent])
+  return report.rows.map(r => [set, r.bin, r.central, r.plus, r.minus, r.relPlus, r.relMinus, r.pdfPlus, r.pdfMinus, r.alphas, report.prescription, report.clPercent, report.interval, r.quadratureError, r.scaleUp, r.scaleDown, report.scaleVariation])
 }

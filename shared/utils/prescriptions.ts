@@ -7,5 +7,5 @@ export const PRESCRIPTION_LABELS: Readonly<Record<Prescription, string>> = {
   'hessian-asymmetric': 'Hessian pairs, asymmetric',
   'one-sided': 'Hessian one-sided eigenvectors',
   'replica-sd': 'Replicas, mean ± standard deviation',
-  'replica-68-interval': 'Replicas, median and 68% interval'
+  'replica-68-interval': 'Replicas, median and percentile interval'
 }

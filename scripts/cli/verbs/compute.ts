@@ -4,7 +4,10 @@
  * and each set's band with its default prescription at 68% CL.
  */
 import { computeBands, prescriptionsFor } from '../../../shared/physics/uncertainty'
-import { buildPlan, evaluatePlan, parseStudySpec, resultUnit, type StudySpec } from '../../../shared/physics/study'
+import {
+  buildPlan, evaluatePlan, memberAlphasFunctions, parseStudySpec, quadratureErrors, resultUnit, scaleVariation,
+  type PlanOptions, type ScalePoint, type StudySpec
+} from '../../../shared/physics/study'
 import type { ErrorSet } from '../../../shared/physics/types'
 import { outputFormat, parseVerbArgs, stringOption, type VerbSpec } from '../args'
 import { BAND_CSV_HEADER, bandCsvRows, bandReport, type BandReport } from '../band-report'
@@ -22,7 +25,13 @@ Evaluates the study (kernel, options, bins; see the README's study format) with 
 each set, through the precomputed plan, and prints per set: its name, kind, the CL of its
 members, the members × bins values (member 0 central; unit in study.unit) and the band with the
 set's default prescription at 68% CL (α_s members, when the set has them, added in quadrature;
-null for a set of the central member alone).
+null for a set of the central member alone; 'interval' says which rule made it).
+Reported apart from the PDF band, on the central member: the scale variation (scaleVariation:
+μ_F × ½, 2 for most kernels, '3-point μ_F'; for kernels with α_s, gg → H, μ_F and μ_R varied
+independently by ½ and 2 without the opposite corners, '7-point μ_F, μ_R'; up/down are the
+envelope; null with scaleVariationError when a varied scale leaves the grid), and each bin's
+quadrature error estimate |I(2n) − I(n)| (quadratureError, beside each band row and under
+quadrature).
 The output is a values document that 'sheaf bands' reads.
 
 Options:
@@ -60,6 +69,35 @@ export interface ComputedSet {
   bands: BandReport | null
   /** Bins (numbered from 1) evaluated at the grid edge (--outside freeze), with the reason. */
   outsideBins?: Array<{ bin: number, message: string }>
+  /** Scale variation of the central member, apart from the PDF band; null when a varied scale leaves the grid. */
+  scaleVariation: ScaleReport | null
+  /** Why there is no scale variation. */
+  scaleVariationError?: string
+  /** Per-bin quadrature error estimate |I(2n) − I(n)| of the central member, study unit. */
+  quadrature: { order: number, checkOrder: number, error: number[] } | null
+}
+
+/** The scale variation as printed: which variation, its points and per bin the values at each point. */
+export interface ScaleReport {
+  variation: string
+  label: string
+  /** The scale points (μ_F and μ_R factors on the nominal scales), in the order of each row's values. */
+  points: ScalePoint[]
+  rows: Array<{ bin: number, nominal: number, up: number, down: number, values: number[] }>
+}
+
+function scaleReport(spec: StudySpec, set: ErrorSet, options: PlanOptions & { secondCentral?: Float64Array }): { report: ScaleReport | null, error?: string } {
+  try {
+    const v = scaleVariation(spec, set, set.members[0]!, options)
+    const nBins = spec.bins.length
+    const rows = Array.from(v.nominal, (nominal, b) => ({
+      bin: b + 1, nominal, up: v.up[b]!, down: v.down[b]!, values: v.points.map((_, r) => v.pointValues[r * nBins + b]!)
+    }))
+    return { report: { variation: v.variation, label: v.label, points: v.points, rows } }
+  } catch (e) {
+    if (!(e instanceof RangeError)) throw e
+    return { report: null, error: e.message }
+  }
 }
 
 function loadStudy(io: CliIo, file: string): StudySpec {
@@ -76,8 +114,9 @@ function computeSet(spec: StudySpec, file: string, set: ErrorSet, outside: 'erro
   let values: Float64Array
   let outsideBins: ComputedSet['outsideBins']
   try {
-    const plan = buildPlan(spec, set, { outside, second: second?.set, alphas: setAlphas(header) })
-    values = evaluatePlan(plan, set.members, second?.set.members)
+    const plan = buildPlan(spec, set, { outside, second: second?.set, alphas: setAlphas(header), scheme: header.scheme })
+    // Each member with its own α_s(M_Z) where the kernel has α_s (gg → H).
+    values = evaluatePlan(plan, set.members, second?.set.members, { memberAlphas: memberAlphasFunctions({ ...header, memberCount: set.members.length }) })
     if (plan.outsideBins.length > 0) outsideBins = plan.outsideBins.map(i => ({ bin: i.bin, message: i.message }))
   } catch (e) {
     const hint = outside === 'error' && /outside|below|above/.test((e as Error).message) ? ' (--outside freeze evaluates such bins at the grid edge)' : ''
@@ -98,7 +137,24 @@ function computeSet(spec: StudySpec, file: string, set: ErrorSet, outside: 'erro
   }
   const rows: number[][] = []
   for (let m = 0; m < members; m++) rows.push(Array.from(values.subarray(m * bins, (m + 1) * bins)))
-  const out: ComputedSet = { set: header.name, file, kind: header.kind, clPercent: header.confidenceLevelPercent, members, bins, values: rows, bands }
+  const context = { outside, second: second?.set, alphas: setAlphas(header), scheme: header.scheme, ...(second ? { secondCentral: second.set.members[0]! } : {}) }
+  const scale = scaleReport(spec, set, context)
+  if (bands && scale.report) {
+    bands.scaleVariation = scale.report.variation
+    bands.rows.forEach((r, b) => { r.scaleUp = scale.report!.rows[b]!.up; r.scaleDown = scale.report!.rows[b]!.down })
+  }
+  let quadrature: ComputedSet['quadrature'] = null
+  try {
+    const q = quadratureErrors(spec, set, set.members[0]!, context)
+    quadrature = { order: q.order, checkOrder: q.checkOrder, error: Array.from(q.error) }
+    if (bands) bands.rows.forEach((r, b) => { r.quadratureError = q.error[b]! })
+  } catch (e) {
+    if (!(e instanceof RangeError)) throw e
+  }
+  const out: ComputedSet = {
+    set: header.name, file, kind: header.kind, clPercent: header.confidenceLevelPercent, members, bins, values: rows, bands,
+    scaleVariation: scale.report, ...(scale.error ? { scaleVariationError: scale.error } : {}), quadrature
+  }
   if (alphasMembers) out.alphasMembers = alphasMembers
   if (outsideBins) out.outsideBins = outsideBins
   return out

@@ -3,7 +3,7 @@
 import type { MeasurementData } from '../../../shared/measurements/csv'
 import type { BandJson } from '../../../shared/physics/uncertainty/band'
 import type { StudySpec } from '../../../shared/physics/study/spec'
-import type { Prescription } from '../../../shared/physics/uncertainty/bands'
+import type { IntervalRule, Prescription } from '../../../shared/physics/uncertainty/bands'
 
 /** The snapshot a result keeps of what it ran: the spec, reporting choices and the sets. */
 export interface SpecSnapshot {
@@ -17,6 +17,9 @@ export interface SpecSnapshot {
 
 /** The engine's scale variation (study/scale.ts) as JSON: central member at μ_F = κ μ. */
 export interface ScaleVariationJson {
+  /** Which variation up/down are: '3-point μ_F' or '7-point μ_F, μ_R' (kernels with α_s); absent in rows stored before it was recorded. */
+  variation?: string
+  label?: string
   kappas: [number, number, number]
   values: number[][]
   nominal: number[]
@@ -32,6 +35,8 @@ export interface StoredBands extends BandJson {
   pdf: BandJson
   /** The α_s part per bin, or null when the set has no α_s members. */
   alphas: number[] | null
+  /** Which rule made the interval (percentile or Gaussian rescaling) and its label; absent in bands stored before it was recorded. */
+  interval?: IntervalRule
 }
 
 /** A measurement as stored: the parsed points and, if given, the correlation and what it applies to. */

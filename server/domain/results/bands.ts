@@ -50,7 +50,8 @@ export function storedBands(r: BandResult): StoredBands {
     prescription: r.prescription,
     clPercent: r.clPercent,
     pdf: bandToJson(r.pdf),
-    alphas: r.alphas ? Array.from(r.alphas) : null
+    alphas: r.alphas ? Array.from(r.alphas) : null,
+    interval: r.interval
   }
 }
 

@@ -47,10 +47,10 @@ export function pairRoles<T extends { header: SetHeader }>(varying: T, partner: 
     : { main: varying, second: partner, varyingRole: 'main' as const }
 }
 
-/** What the kernels need from the set beyond its grid: the one-loop α_s of its header. */
+/** What the kernels need from the set beyond its grid: the one-loop α_s of its header and its flavour scheme. */
 export function kernelContextOf(header: SetHeader): KernelContext {
   const alphas = makeAlphas({ value: header.alphasMzCentral, scaleGeV2: MZ_GEV * MZ_GEV }, header.scheme)
-  return { alphas }
+  return { alphas, scheme: header.scheme }
 }
 
 /**

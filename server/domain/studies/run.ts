@@ -10,6 +10,7 @@ import type { DB } from '../../database/client'
 import { tables as t } from '../../database/client'
 import type { Result, ScaleVariationJson } from '../../database/schema'
 import { buildPlan, evaluatePlan } from '../../../shared/physics/study/plan'
+import { memberAlphasFunctions } from '../../../shared/physics/study/member-alphas'
 import { scaleVariation } from '../../../shared/physics/study/scale'
 import { parseStudySpec, type StudySpec } from '../../../shared/physics/study/spec'
 import type { ErrorSet } from '../../../shared/physics/types'
@@ -84,11 +85,13 @@ async function evaluateMembers(db: DB, result: Result, spec: StudySpec, set: Err
   const bins = plan.nBins
   const values = new Float64Array(total * bins)
   const step = chunkSize(total)
+  // Kernels with α_s (gg → H) run each member of the varying main set with its own α_s(M_Z).
+  const memberAlphas = memberAlphasFunctions({ ...set.header, memberCount: total })
   for (let m0 = 0; m0 < total; m0 += step) {
     const m1 = Math.min(total, m0 + step)
     const chunk = set.members.slice(m0, m1)
     const out = roles.varyingRole === 'main'
-      ? evaluatePlan(plan, chunk, roles.second ? [roles.second.members[0]!] : undefined)
+      ? evaluatePlan(plan, chunk, roles.second ? [roles.second.members[0]!] : undefined, { memberAlphas: memberAlphas.slice(m0, m1) })
       : evaluatePlan(plan, [roles.main.members[0]!], chunk)
     values.set(out, m0 * bins)
     const [row] = await db.update(t.results).set({ membersDone: m1 }).where(eq(t.results.id, result.id))
@@ -112,6 +115,7 @@ function evaluateScaleVariations(spec: StudySpec, set: ErrorSet, partner: ErrorS
     })
     const bins = spec.bins.length
     return {
+      variation: v.variation, label: v.label,
       kappas: v.kappas,
       values: [0, 1, 2].map(k => Array.from(v.values.subarray(k * bins, (k + 1) * bins))),
       nominal: Array.from(v.nominal), up: Array.from(v.up), down: Array.from(v.down)

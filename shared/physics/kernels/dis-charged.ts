@@ -17,8 +17,15 @@ import { gev2ToUnit } from './units'
  * charge conjugates:
  *   F₂^{W⁺} = 2 Σ_j c_j x d_j + 2 Σ_i r_i x ū_i,   xF₃^{W⁺} = 2 Σ_j c_j x d_j − 2 Σ_i r_i x ū_i,
  *   F₂^{W⁻} = 2 Σ_i r_i x u_i + 2 Σ_j c_j x d̄_j,   xF₃^{W⁻} = 2 Σ_i r_i x u_i − 2 Σ_j c_j x d̄_j,
- * with c_j = Σ_{i ∈ u, c} |V_ij|² (no top production) and r_i = Σ_{j ∈ d, s, b} |V_ij|².
- * With `ckm: 'diagonal'` this is the textbook F₂^{νp} = 2x(d + s + ū + c̄) (plus b, b̄ terms).
+ * with c_j = Σ_{i ∈ u, c} |V_ij|² (+ |V_tj|² when top production is open) and
+ * r_i = Σ_{j ∈ d, s, b} |V_ij|² for i = u, c, t.
+ * Heavy flavours are treated as in the neutral-current and Drell–Yan kernels: every quark the
+ * set carries is a massless parton, so t and t̄ are struck like u and c wherever the set has a top
+ * density (a six-flavour set above m_t²; below it, or in a set of five flavours or fewer, the top
+ * density is absent or zero and drops out). Producing a top from d_j (mostly b → t) is open under
+ * the same condition, `topOpen`: the study sets it where the set's scheme has six active flavours
+ * at Q² (Q² ≥ m_t² of a six-flavour set); without it (the default) no top is produced.
+ * With `ckm: 'diagonal'` this is the textbook F₂^{νp} = 2x(d + s + ū + c̄) (plus b, b̄, t̄ terms).
  * 2xF₁ = F₂ at LO. The cross-section (fixed target, lab beam energy E, nucleon mass M):
  *   d²σ/dx dy = (G_F² M E/π) (M_W²/(M_W² + Q²))² [x y² F₁ + (1 − y − xyM/(2E)) F₂ ± y(1 − y/2) xF₃],
  * + for ν, − for ν̄, Q² = 2 M E x y. The scale is μ_F² = Q².
@@ -34,11 +41,16 @@ export interface CcOptions {
   target?: Hadron
   /** CKM magnitudes (default 'pdg', constants.ts) or the unit matrix. */
   ckm?: CkmChoice
+  /**
+   * Whether a top can be produced (d_j → t): true where the set has six active flavours at Q²
+   * (set by the study from the set's scheme); default false.
+   */
+  topOpen?: boolean
 }
 
-/** Sum over the final up-type quarks u, c of |V_ij|² (the top is too heavy to produce). */
-function columnWeight(down: Pdg, ckm: CkmChoice): number {
-  return vSquared(2, down, ckm) + vSquared(4, down, ckm)
+/** Sum over the final up-type quarks u, c (and t when open) of |V_ij|². */
+function columnWeight(down: Pdg, ckm: CkmChoice, topOpen: boolean): number {
+  return vSquared(2, down, ckm) + vSquared(4, down, ckm) + (topOpen ? vSquared(6, down, ckm) : 0)
 }
 
 function rowWeight(up: Pdg, ckm: CkmChoice): number {
@@ -49,19 +61,20 @@ function rowWeight(up: Pdg, ckm: CkmChoice): number {
 
 /**
  * Weights of F₂ or xF₃ on the target's own densities (before isospin), for a W⁺ (ν) or W⁻ (ν̄).
- * Only u, c (not t) appear as struck up-type quarks or antiquarks. Dimensionless.
+ * u, c and t (ū, c̄, t̄) appear as struck up-type quarks (antiquarks); the top's weight counts
+ * only where the set carries a top density. `topOpen` adds d_j → t production. Dimensionless.
  * @example ccWeights('neutrino', 'F2', 'diagonal').get(1) // 2 (d → u)
+ * @example ccWeights('neutrino', 'F2', 'diagonal').get(-6) // 2 (t̄ → b̄)
  */
-export function ccWeights(beam: CcBeam, structure: 'F2' | 'xF3', ckm: CkmChoice = 'pdg'): Map<Pdg, number> {
+export function ccWeights(beam: CcBeam, structure: 'F2' | 'xF3', ckm: CkmChoice = 'pdg', topOpen = false): Map<Pdg, number> {
   const sign = structure === 'F2' ? 1 : -1
   const w = new Map<Pdg, number>()
-  const up = UP_TYPE.filter(u => u !== 6)
   if (beam === 'neutrino') {
-    for (const d of DOWN_TYPE) addWeight(w, d, 2 * columnWeight(d, ckm))
-    for (const u of up) addWeight(w, -u, sign * 2 * rowWeight(u, ckm))
+    for (const d of DOWN_TYPE) addWeight(w, d, 2 * columnWeight(d, ckm, topOpen))
+    for (const u of UP_TYPE) addWeight(w, -u, sign * 2 * rowWeight(u, ckm))
   } else {
-    for (const u of up) addWeight(w, u, 2 * rowWeight(u, ckm))
-    for (const d of DOWN_TYPE) addWeight(w, -d, sign * 2 * columnWeight(d, ckm))
+    for (const u of UP_TYPE) addWeight(w, u, 2 * rowWeight(u, ckm))
+    for (const d of DOWN_TYPE) addWeight(w, -d, sign * 2 * columnWeight(d, ckm, topOpen))
   }
   return w
 }
@@ -78,7 +91,7 @@ function checkPoint(x: number, q2GeV2: number): void {
  */
 export function ccStructureTerm(structure: CcStructure, x: number, q2GeV2: number, options: CcOptions): LinearTerm {
   checkPoint(x, q2GeV2)
-  const own = ccWeights(options.beam, structure === 'xF3' ? 'xF3' : 'F2', options.ckm)
+  const own = ccWeights(options.beam, structure === 'xF3' ? 'xF3' : 'F2', options.ckm, options.topOpen)
   return { kind: 'linear', x, mu2GeV2: q2GeV2, factor: 1, weights: onProton(own, options.target ?? PROTON) }
 }
 
@@ -113,8 +126,8 @@ export function ccCrossSectionTerm(x: number, y: number, options: CcCrossSection
   // x y² F₁ = y² F₂/2 (Callan–Gross), so the bracket is a·F₂ + b·xF₃:
   const a = y * y / 2 + 1 - y - x * y * m / (2 * e)
   const b = (options.beam === 'neutrino' ? 1 : -1) * y * (1 - y / 2)
-  const f2 = ccWeights(options.beam, 'F2', options.ckm)
-  const xf3 = ccWeights(options.beam, 'xF3', options.ckm)
+  const f2 = ccWeights(options.beam, 'F2', options.ckm, options.topOpen)
+  const xf3 = ccWeights(options.beam, 'xF3', options.ckm, options.topOpen)
   const own = new Map<Pdg, number>()
   for (const [p, w] of f2) addWeight(own, p, a * w)
   for (const [p, w] of xf3) addWeight(own, p, b * w)

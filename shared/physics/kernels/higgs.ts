@@ -11,8 +11,10 @@ import { gev2ToUnit } from './units'
  * see shared/physics/README.md, "Higgs"):
  *   σ̂(gg → H) = σ₀ M_H² δ(ŝ − M_H²),  σ₀ = G_F α_s² / (288 √2 π),
  *   dσ/dy = σ₀ x₁g(x₁) x₂g(x₂),  x₁,₂ = (M_H/√s) e^{±y}.
- * α_s is taken at the renormalisation scale μ_R = M_H from the caller's function (one-loop α_s
- * of shared/physics/alphas.ts in the engine); only μ_F is varied by a scale factor. The LO
+ * α_s is taken at the renormalisation scale μ_R = κ_R M_H (κ_R = 1 by default) from the caller's
+ * function (one-loop α_s of shared/physics/alphas.ts in the engine); μ_F and μ_R are varied
+ * independently (shared/physics/study/scale.ts). In a study each member runs with its own
+ * α_s(M_Z): the plan rescales member k by (α_s,k(μ_R²)/α_s,0(μ_R²))². The LO
  * heavy-top cross-section is well known to be about half the measured one (common practice).
  */
 
@@ -25,6 +27,8 @@ export interface HiggsOptions extends CollisionOptions {
   alphas: (q2GeV2: number) => number
   /** Default pb. */
   unit?: CrossSectionUnit
+  /** κ_R in μ_R = κ_R M_H; default 1. */
+  renormalisationScaleFactor?: number
 }
 
 /**
@@ -41,8 +45,9 @@ export function higgsSigma0GeV2(alphas: number): number {
  * @example higgsTerm(0, { sqrtSGeV: 13000, alphas: () => 0.112 }).pairs // [{ a: 21, b: 21, w: 1 }]
  */
 export function higgsTerm(y: number, options: HiggsOptions): BilinearTerm {
-  const as = options.alphas(MH_GEV * MH_GEV)
-  if (!(as > 0) || !Number.isFinite(as)) throw new RangeError(`α_s(M_H²) must be a positive number; the α_s function returned ${as}`)
+  const kappaR = options.renormalisationScaleFactor ?? 1
+  const as = options.alphas((kappaR * MH_GEV) ** 2)
+  if (!(as > 0) || !Number.isFinite(as)) throw new RangeError(`α_s(μ_R²) at μ_R = ${kappaR === 1 ? 'M_H' : `${kappaR} M_H`} (α_s(M_H²) when κ_R = 1) must be a positive number; the α_s function returned ${as}`)
   return collisionTerm(MH_GEV, y, options, higgsSigma0GeV2(as) * gev2ToUnit(options.unit), GLUON_PAIR)
 }
 

@@ -17,8 +17,8 @@ export type { CrossSectionUnit } from './units'
 export { crossSectionUnitSchema, perPb, gev2ToUnit } from './units'
 
 // DIS
-export type { NcObservable, NcOptions } from './dis-neutral'
-export { f2PhotonWeights, ncTerm, f2NeutralCurrent, flNeutralCurrent, twoXF1NeutralCurrent, d2SigmaDxDQ2NeutralCurrent } from './dis-neutral'
+export type { NcObservable, NcOptions, NcExchange, NcLepton } from './dis-neutral'
+export { f2PhotonWeights, etaGammaZ, gammaZWeights, ncTerm, f2NeutralCurrent, flNeutralCurrent, twoXF1NeutralCurrent, d2SigmaDxDQ2NeutralCurrent } from './dis-neutral'
 export type { CcBeam, CcStructure, CcOptions, CcCrossSectionOptions } from './dis-charged'
 export { ccWeights, ccStructureTerm, ccStructureFunction, ccCrossSectionTerm, d2SigmaDxDyChargedCurrent } from './dis-charged'
 
@@ -49,4 +49,4 @@ export { userWeightRowSchema, userKernelOptionsSchema, userKernelVariables, buil
 
 // Catalogue used by studies
 export type { VariableName, VariableSpec, KernelContext, PointEvaluator, KernelDefinition, CompositePart, CompositeDefinition, AnyKernelDefinition } from './registry'
-export { KERNEL_IDS, kernelDefinition, kernelCatalogue, kernelKind } from './registry'
+export { KERNEL_IDS, kernelDefinition, kernelCatalogue, kernelKind, kernelLabel } from './registry'

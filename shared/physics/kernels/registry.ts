@@ -1,11 +1,13 @@
 import { z } from 'zod'
+import { activeFlavours } from '../alphas'
+import type { FlavourScheme } from '../types'
 import type { CombineOp } from './ratios'
 import { ccCrossSectionTerm, ccStructureTerm } from './dis-charged'
 import { ncTerm } from './dis-neutral'
 import { drellYanTerm } from './drell-yan'
 import { hadronSchema } from './hadrons'
 import { higgsTerm } from './higgs'
-import { MH_GEV } from '../constants'
+import { MH_GEV, PROTON_MASS_GEV } from '../constants'
 import type { LuminosityChannel } from './luminosity'
 import { luminosityTerm } from './luminosity'
 import type { Term } from './terms'
@@ -41,8 +43,20 @@ const MASS: VariableSpec = { name: 'm', label: 'mass M in GeV', gevPower: 1, che
 
 /** What the caller supplies beyond the spec: α_s for kernels that need it. */
 export interface KernelContext {
-  /** α_s(μ²), μ² in GeV²; needed by the gluon-fusion kernels. */
+  /** α_s(μ²), μ² in GeV²; needed by the gluon-fusion kernels (the central member's α_s). */
   alphas?: (q2GeV2: number) => number
+  /** κ_R in μ_R = κ_R μ for kernels with α_s (default 1); the study sets it from its spec. */
+  renormalisationScaleFactor?: number
+  /**
+   * The set's flavour scheme: charged-current DIS opens top production where it has six active
+   * flavours at Q² (as the other kernels use a top density wherever the set has one).
+   */
+  scheme?: FlavourScheme
+}
+
+/** Whether a top can be produced at Q² in charged-current DIS: six active flavours in the set's scheme. */
+function topOpen(context: KernelContext, q2GeV2: number): boolean {
+  return context.scheme !== undefined && Number.isFinite(q2GeV2) && q2GeV2 > 0 && activeFlavours(q2GeV2, context.scheme) >= 6
 }
 
 /** The term at a kinematic point (variable name → value). */
@@ -65,6 +79,12 @@ export interface KernelDefinition {
   /** Words for the result, e.g. "d²σ/dM dy". */
   quantity: string
   needsAlphas?: boolean
+  /**
+   * For kernels proportional to α_s(μ_R²)^power with one μ_R per study (gg → H: power 2,
+   * μ_R = κ_R M_H): the power and μ_R² in GeV² for the given options and κ_R. The plan uses it to
+   * give each member its own α_s (see shared/physics/README.md, "Higgs").
+   */
+  alphasScaling?: { power: number, mu2GeV2: (options: Record<string, unknown>, renormalisationScaleFactor: number) => number }
   /**
    * For totals and luminosities: the mass of the produced system at a point, whose whole
    * rapidity range each bin integrates over (within the grid's x range).
@@ -91,6 +111,8 @@ export interface CompositeDefinition {
   op: CombineOp
   optionsSchema: z.ZodType
   parts: (options: Record<string, unknown>) => [CompositePart, CompositePart]
+  /** Words for what the composite divides by, for the given options (labels and exports). */
+  describe?: (options: Record<string, unknown>) => string
 }
 
 export type AnyKernelDefinition = KernelDefinition | CompositeDefinition
@@ -104,9 +126,15 @@ const disTarget = z.discriminatedUnion('type', [
 ])
 const sqrtS = z.number().positive('√s must be positive').max(1e6)
 const ckm = z.enum(['pdg', 'diagonal'])
-const ncOptions = z.strictObject({ target: disTarget.optional() })
-const ncEnergyOptions = z.strictObject({ target: disTarget.optional(), sqrtSGeV: sqrtS })
-const ncXsecOptions = z.strictObject({ target: disTarget.optional(), sqrtSGeV: sqrtS, unit: crossSectionUnitSchema.optional() })
+// Neutral current: 'photon' exchange (default) or 'gamma-z' (γ, γ/Z and Z); the lepton's charge
+// sets the sign of xF̃₃ in the reduced and differential cross-sections with γ/Z.
+const exchange = z.enum(['photon', 'gamma-z'])
+const lepton = z.enum(['electron', 'positron'])
+const needsLepton = (o: { exchange?: string, lepton?: string }) => o.exchange !== 'gamma-z' || o.lepton !== undefined
+const leptonMessage = { message: 'γ/Z exchange needs the lepton: electron or positron (the sign of xF̃₃)', path: ['lepton'] }
+const ncOptions = z.strictObject({ target: disTarget.optional(), exchange: exchange.optional(), lepton: lepton.optional() })
+const ncEnergyOptions = z.strictObject({ target: disTarget.optional(), sqrtSGeV: sqrtS, exchange: exchange.optional(), lepton: lepton.optional() }).refine(needsLepton, leptonMessage)
+const ncXsecOptions = z.strictObject({ target: disTarget.optional(), sqrtSGeV: sqrtS, unit: crossSectionUnitSchema.optional(), exchange: exchange.optional(), lepton: lepton.optional() }).refine(needsLepton, leptonMessage)
 const ccOptions = z.strictObject({ beam: z.enum(['neutrino', 'antineutrino']), target: disTarget.optional(), ckm: ckm.optional() })
 const ccXsecOptions = ccOptions.extend({ beamEnergyGeV: z.number().positive('the beam energy must be positive').max(1e7), unit: crossSectionUnitSchema.optional() })
 const collider = z.strictObject({ sqrtSGeV: sqrtS, beam1: hadronSchema.optional(), beam2: hadronSchema.optional(), unit: crossSectionUnitSchema.optional() })
@@ -118,7 +146,7 @@ const opt = (o: Record<string, unknown>) => o as any
 
 function nc(id: string, observable: 'F2' | 'FL' | '2xF1' | 'reduced' | 'd2sigma', quantity: string, schema: z.ZodType): KernelDefinition {
   return {
-    id, title: `DIS neutral current (γ exchange), ${quantity}`, composite: false, kind: 'linear', optionsSchema: schema,
+    id, title: `DIS neutral current (γ, or γ/Z with exchange: gamma-z), ${quantity}`, composite: false, kind: 'linear', optionsSchema: schema,
     variables: () => [X, Q2], crossSection: observable === 'd2sigma', gevPower: observable === 'd2sigma' ? 2 : 0, quantity,
     prepare: o => p => ncTerm(observable, p.x!, p.q2!, opt(o))
   }
@@ -128,7 +156,7 @@ function cc(id: string, structure: 'F2' | 'xF3' | '2xF1', quantity: string): Ker
   return {
     id, title: `DIS charged current (ν/ν̄), ${quantity}`, composite: false, kind: 'linear', optionsSchema: ccOptions,
     variables: () => [X, Q2], crossSection: false, gevPower: 0, quantity,
-    prepare: o => p => ccStructureTerm(structure, p.x!, p.q2!, opt(o))
+    prepare: (o, context) => p => ccStructureTerm(structure, p.x!, p.q2!, { ...opt(o), topOpen: topOpen(context, p.q2!) })
   }
 }
 
@@ -147,12 +175,13 @@ function higgs(id: string, total: boolean): KernelDefinition {
   return {
     id, title: `gg → H (heavy-top limit)${total ? ', total' : ''}`, composite: false, kind: 'bilinear', optionsSchema: collider,
     variables: () => total ? [] : [RAPIDITY], crossSection: true, gevPower: 0, quantity: total ? 'σ' : 'dσ/dy', needsAlphas: true,
+    alphasScaling: { power: 2, mu2GeV2: (_o, kappaR) => (kappaR * MH_GEV) ** 2 },
     fullRapidityMass: total ? () => MH_GEV : undefined,
     sqrtS: o => opt(o).sqrtSGeV,
     prepare: (o, context) => {
       const alphas = context.alphas
       if (!alphas) throw new RangeError('the gluon-fusion kernel needs α_s: pass an alphas(q2GeV2) function when building the study')
-      return p => higgsTerm(p.y!, { ...opt(o), alphas })
+      return p => higgsTerm(p.y!, { ...opt(o), alphas, renormalisationScaleFactor: context.renormalisationScaleFactor })
     }
   }
 }
@@ -188,6 +217,9 @@ const ccRatioOptions = z.strictObject({
 const nuclearBases = ['drell-yan', 'w-plus', 'w-minus', 'z', 'higgs-ggf', 'dis-nc-f2', 'dis-cc-f2'] as const
 const nuclearRatioOptions = z.looseObject({
   base: z.enum(nuclearBases),
+  // 'proton' (default): per-nucleon σ_A over the free proton's; 'isospin': over the free
+  // nucleons' (Z·p + N·n)/A from the baseline set, so that isospin does not count as a nuclear effect.
+  denominator: z.enum(['proton', 'isospin']).optional(),
   nucleus: z.strictObject({ z: z.number().int().min(1), a: z.number().int().min(1).max(300) }).refine(n => n.z <= n.a, { message: 'a nucleus needs Z ≤ A', path: ['z'] })
 })
 
@@ -203,7 +235,7 @@ const singles: KernelDefinition[] = [
   {
     id: 'dis-cc-d2sigma', title: 'DIS charged current (ν/ν̄), d²σ/dx dy', composite: false, kind: 'linear', optionsSchema: ccXsecOptions,
     variables: () => [X, INELASTICITY], crossSection: true, gevPower: 0, quantity: 'd²σ/dx dy',
-    prepare: o => p => ccCrossSectionTerm(p.x!, p.y!, opt(o))
+    prepare: (o, context) => p => ccCrossSectionTerm(p.x!, p.y!, { ...opt(o), topOpen: topOpen(context, 2 * PROTON_MASS_GEV * opt(o).beamEnergyGeV * p.x! * p.y!) })
   },
   {
     id: 'drell-yan', title: 'Drell–Yan γ* → ℓ⁺ℓ⁻', composite: false, kind: 'bilinear', optionsSchema: collider,
@@ -242,15 +274,34 @@ const composites: CompositeDefinition[] = [
   {
     id: 'nuclear-ratio', title: 'nuclear ratio σ_pA/(A σ_pp) per nucleon', composite: true, op: 'ratio', optionsSchema: nuclearRatioOptions,
     parts: o => {
-      const { base, nucleus, ...rest } = opt(o)
+      const { base, nucleus, denominator = 'proton', ...rest } = opt(o)
       const target = { type: 'nucleus', z: nucleus.z, a: nucleus.a }
+      // The denominator reads the baseline (free-proton) set: a free proton, or the free nucleons
+      // of the same nucleus (Z p + N n)/A by isospin (see shared/physics/README.md, "Nuclear targets and isospin").
+      const free = denominator === 'isospin' ? target : { type: 'proton' }
       const dis = String(base).startsWith('dis-')
       return dis
-        ? [{ kernel: base, options: { ...rest, target }, useSecond: true }, { kernel: base, options: { ...rest, target: { type: 'proton' } }, useSecond: false }]
-        : [{ kernel: base, options: { ...rest, beam2: target }, useSecond: true }, { kernel: base, options: { ...rest, beam2: { type: 'proton' } }, useSecond: false }]
+        ? [{ kernel: base, options: { ...rest, target }, useSecond: true }, { kernel: base, options: { ...rest, target: free }, useSecond: false }]
+        : [{ kernel: base, options: { ...rest, beam2: target }, useSecond: true }, { kernel: base, options: { ...rest, beam2: free }, useSecond: false }]
+    },
+    describe: o => {
+      const { nucleus, denominator = 'proton' } = opt(o)
+      const n = nucleus ? `Z = ${nucleus.z}, A = ${nucleus.a}` : 'the nucleus'
+      return denominator === 'isospin'
+        ? `per nucleon, over the free nucleons (Z·p + N·n)/A of ${n} (isospin-corrected)`
+        : `per nucleon, over a free proton (isospin not corrected for ${n})`
     }
   }
 ]
+
+/**
+ * A kernel's title with what a composite divides by, e.g. "nuclear ratio σ_pA/(A σ_pp) per
+ * nucleon — per nucleon, over the free nucleons (Z·p + N·n)/A of Z = 82, A = 208 (isospin-corrected)".
+ */
+export function kernelLabel(id: string, options: Record<string, unknown>): string {
+  const def = kernelDefinition(id)
+  return def.composite && def.describe ? `${def.title} — ${def.describe(options)}` : def.title
+}
 
 /** Whether a kernel gives linear or bilinear forms for the given options. */
 export function kernelKind(def: KernelDefinition, options: Record<string, unknown>): 'linear' | 'bilinear' {

@@ -103,14 +103,31 @@ function termReach(term: Term, point: Partial<Record<VariableName, number>>, r1:
   return null
 }
 
-/** Quadrature points (value, weight) of one variable of one bin. */
-function variableNodes(spec: StudySpec, row: StudySpec['bins'][number], name: VariableName): Array<[number, number]> {
+/**
+ * Variables integrated in their logarithm: Q² and M, whose integrands fall steeply (≈ 1/Q⁴,
+ * 1/M³), so a wide bin needs the rule in ln v (see shared/physics/README.md, "Study evaluation").
+ */
+export const LOG_VARIABLES: ReadonlySet<VariableName> = new Set<VariableName>(['q2', 'm'])
+
+/**
+ * Quadrature points (value, weight) of one variable of one bin: Gauss–Legendre of `order` points
+ * in v for x and y, in u = ln v for Q² and M (∫ f dv = ∫ f v du, so each weight carries the
+ * Jacobian v); divided by the range's length for rangeMode 'average'.
+ */
+export function variableNodes(spec: Pick<StudySpec, 'rangeMode'>, row: StudySpec['bins'][number], name: VariableName, order: number): Array<[number, number]> {
   const point = row[name as BinColumn]
   if (point !== undefined) return [[point, 1]]
   const lo = row[`${name}Min` as BinColumn]!
   const hi = row[`${name}Max` as BinColumn]!
-  const { nodes, weights } = gaussLegendreOn(spec.quadratureOrder, lo, hi)
   const scale = spec.rangeMode === 'average' ? 1 / (hi - lo) : 1
+  if (LOG_VARIABLES.has(name) && lo > 0) {
+    const { nodes, weights } = gaussLegendreOn(order, Math.log(lo), Math.log(hi))
+    return Array.from(nodes, (u, i) => {
+      const v = Math.exp(u)
+      return [v, weights[i]! * v * scale] as [number, number]
+    })
+  }
+  const { nodes, weights } = gaussLegendreOn(order, lo, hi)
   return Array.from(nodes, (v, i) => [v, weights[i]! * scale] as [number, number])
 }
 
@@ -123,7 +140,7 @@ function expandPart(spec: StudySpec, def: KernelDefinition, options: Record<stri
   const a2 = source2 === 'second' ? axes.second! : axes.main
   const r1 = axesRange(a1)
   const r2 = axesRange(a2)
-  const evaluate = def.prepare(options, context)
+  const evaluate = def.prepare(options, { ...context, renormalisationScaleFactor: spec.renormalisationScaleFactor ?? 1 })
   const variables = def.variables(options)
   const kappa2 = spec.scaleFactor * spec.scaleFactor
   const bins: ExpandedBin[] = spec.bins.map((row, index) => {
@@ -132,7 +149,7 @@ function expandPart(spec: StudySpec, def: KernelDefinition, options: Record<stri
     // Tensor product of the variables' quadrature points.
     let points: Array<[Partial<Record<VariableName, number>>, number]> = [[{}, 1]]
     for (const v of variables) {
-      const nodes = variableNodes(spec, row, v.name)
+      const nodes = variableNodes(spec, row, v.name, spec.quadratureOrder)
       points = points.flatMap(([p, w]) => nodes.map(([value, wv]) => [{ ...p, [v.name]: value }, w * wv] as [Partial<Record<VariableName, number>>, number]))
     }
     for (const [point, weight] of points) {

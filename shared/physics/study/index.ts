@@ -10,15 +10,18 @@ export { BIN_COLUMNS, binRowSchema, studySpecSchema, StudySpecError, checkStudyS
 
 // Expansion into quadrature points and reach
 export type { StudyAxes, ExpandedBin, DensitySource, ExpandedPart, ReachIssue, ExpandedStudy } from './expand'
-export { expandStudy, checkReach } from './expand'
+export { expandStudy, checkReach, variableNodes, LOG_VARIABLES } from './expand'
 
 // Evaluation
-export type { LinearPlanPart, BilinearPlanPart, PlanPart, Plan, PlanOptions } from './plan'
+export type { LinearPlanPart, BilinearPlanPart, PlanPart, Plan, PlanOptions, EvaluateOptions } from './plan'
 export { StudyReachError, buildPlan, evaluatePlan } from './plan'
 export type { SetMembers, DirectOptions } from './direct'
 export { evaluateDirect } from './direct'
-export type { ScaleVariation } from './scale'
-export { scaleVariation } from './scale'
+export { memberAlphasFunctions } from './member-alphas'
+export type { QuadratureErrors } from './quadrature-error'
+export { quadratureErrors } from './quadrature-error'
+export type { ScaleVariation, ScalePoint } from './scale'
+export { scaleVariation, studyHasAlphas } from './scale'
 
 // Benchmark study (timed by scripts/cli/bench.ts)
 export { benchmarkSpec } from './benchmark'

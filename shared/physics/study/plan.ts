@@ -5,6 +5,7 @@ import { interpolationStencil } from '../interpolation/stencil'
 import type { CombineOp } from '../kernels/ratios'
 import { combineByMember } from '../kernels/ratios'
 import type { KernelContext } from '../kernels/registry'
+import { kernelDefinition } from '../kernels/registry'
 import type { BilinearTerm, LinearTerm } from '../kernels/terms'
 import type { DensitySource, ExpandedPart, ReachIssue, StudyAxes } from './expand'
 import { expandStudy } from './expand'
@@ -92,6 +93,22 @@ export interface Plan {
   outsideBins: ReachIssue[]
   /** Total quadrature points (for reporting). */
   points: number
+  /**
+   * For kernels ∝ α_s(μ_R²)^power (gg → H): μ_R² in GeV², the central α_s(μ_R²) folded into the
+   * weights, and each part's power (0 for parts without α_s). evaluatePlan rescales member k by
+   * (α_s,k(μ_R²)/reference)^power when given the members' α_s functions.
+   */
+  alphas?: { mu2GeV2: number, reference: number, powers: number[] }
+}
+
+/** Options of {@link evaluatePlan}. */
+export interface EvaluateOptions {
+  /**
+   * α_s(μ²) of each main-set member passed to evaluatePlan (same order and length), so that a
+   * kernel with α_s runs each member with its own α_s(M_Z) (memberAlphasFunctions). Without it
+   * every member uses the central α_s the plan was built with.
+   */
+  memberAlphas?: ReadonlyArray<(q2GeV2: number) => number>
 }
 
 /** Options of {@link buildPlan}. */
@@ -335,8 +352,22 @@ export function buildPlan(spec: StudySpec, axes: GridAxes, options: PlanOptions 
     parts,
     op: expanded.op,
     outsideBins: expanded.issues,
-    points
+    points,
+    ...planAlphas(spec, expanded.parts, options)
   }
+}
+
+/** The α_s scaling record of a plan (see Plan.alphas), or nothing when no part has α_s. */
+function planAlphas(spec: StudySpec, parts: ExpandedPart[], options: PlanOptions): { alphas?: Plan['alphas'] } {
+  let mu2GeV2 = 0
+  const powers = parts.map((part) => {
+    const def = kernelDefinition(part.kernel)
+    if (def.composite || !def.alphasScaling) return 0
+    mu2GeV2 = def.alphasScaling.mu2GeV2(spec.options, spec.renormalisationScaleFactor ?? 1)
+    return def.alphasScaling.power
+  })
+  if (!powers.some(p => p !== 0) || !options.alphas) return {}
+  return { alphas: { mu2GeV2, reference: options.alphas(mu2GeV2), powers } }
 }
 
 type Members = readonly Float64Array[]
@@ -428,6 +459,32 @@ function evaluateBilinear(part: BilinearPlanPart, members1: Members, members2: M
   return out
 }
 
+/**
+ * Rescales each row of the parts with α_s from the central α_s(μ_R²) folded into the plan to the
+ * member's own: row k × (α_s,k(μ_R²)/α_s,0(μ_R²))^power; a single main member serves every row.
+ */
+function applyMemberAlphas(plan: Plan, values: Float64Array[], mainCount: number, memberAlphas: NonNullable<EvaluateOptions['memberAlphas']>): void {
+  const { mu2GeV2, reference, powers } = plan.alphas!
+  if (memberAlphas.length !== mainCount) {
+    throw new RangeError(`memberAlphas has ${memberAlphas.length} α_s functions but ${mainCount} main-set members were given: pass one per member`)
+  }
+  const factors = memberAlphas.map((alphas, k) => {
+    const a = alphas(mu2GeV2)
+    if (!(a > 0) || !Number.isFinite(a)) throw new RangeError(`member ${k}: α_s(μ_R²) must be a positive number; got ${a}`)
+    return a / reference
+  })
+  values.forEach((v, p) => {
+    const power = powers[p]!
+    if (power === 0) return
+    const rows = v.length / plan.nBins
+    for (let k = 0; k < rows; k++) {
+      const f = factors[mainCount === 1 ? 0 : k]! ** power
+      if (f === 1) continue
+      for (let b = 0; b < plan.nBins; b++) v[k * plan.nBins + b]! *= f
+    }
+  })
+}
+
 function membersFor(source: DensitySource, main: Members, second: Members | undefined): Members {
   if (source === 'main') return main
   if (!second) throw new RangeError('this plan was built with a second set: pass its members as well')
@@ -444,12 +501,13 @@ function membersFor(source: DensitySource, main: Members, second: Members | unde
  * Agrees with {@link evaluateDirect} to ~1e-14 relative (tested at 1e-12).
  * @example evaluatePlan(plan, set.members)[3 * plan.nBins + 0] // member 3, bin 1
  */
-export function evaluatePlan(plan: Plan, members: Members, second?: Members): Float64Array {
+export function evaluatePlan(plan: Plan, members: Members, second?: Members, options: EvaluateOptions = {}): Float64Array {
   if (members.length === 0) throw new RangeError('no members to evaluate: give at least the central member')
   const values = plan.parts.map((part) => {
     if (part.kind === 'linear') return evaluateLinear(part, membersFor(part.source, members, second), plan.nBins)
     return evaluateBilinear(part, membersFor(part.source1, members, second), membersFor(part.source2, members, second), plan.nBins)
   })
+  if (plan.alphas && options.memberAlphas) applyMemberAlphas(plan, values, members.length, options.memberAlphas)
   if (plan.op === undefined) return values[0]!
   return combineByMember(values[0]!, values[1]!, plan.nBins, plan.op)
 }

@@ -16,7 +16,8 @@ import { KERNEL_IDS, kernelDefinition } from '../kernels/registry'
  * or averaged ('average'); ranged variables use the Gauss–Legendre rule of `quadratureOrder`
  * points each. Totals and luminosities integrate the whole rapidity range inside each bin with
  * `fullRangeOrder` points. The factorisation scale is μ_F = scaleFactor · μ (μ = Q for DIS, the
- * produced mass for hadron–hadron kernels).
+ * produced mass for hadron–hadron kernels); kernels with α_s (gg → H) take it at
+ * μ_R = renormalisationScaleFactor · μ (default 1), set independently.
  */
 
 /** Columns a bin row may carry: each variable as a point or as Min/Max. */
@@ -43,6 +44,7 @@ export const studySpecSchema = z.strictObject({
   quadratureOrder: z.number().int('must be an integer').min(1, 'must be at least 1').max(64, 'must be at most 64').optional(),
   fullRangeOrder: z.number().int('must be an integer').min(4, 'must be at least 4').max(256, 'must be at most 256').optional(),
   scaleFactor: z.number().min(0.25, 'must be at least 0.25').max(4, 'must be at most 4').optional(),
+  renormalisationScaleFactor: z.number().min(0.25, 'must be at least 0.25').max(4, 'must be at most 4').optional(),
   rangeMode: z.enum(['integrate', 'average']).optional()
 })
 
@@ -61,6 +63,8 @@ export interface StudySpec {
   fullRangeOrder: number
   /** κ in μ_F = κ μ (default 1). */
   scaleFactor: number
+  /** κ_R in μ_R = κ_R μ for kernels with α_s (gg → H); default 1, independent of scaleFactor. */
+  renormalisationScaleFactor?: number
   rangeMode: 'integrate' | 'average'
 }
 
@@ -210,6 +214,7 @@ export function checkStudySpec(input: unknown): StudyCheck {
       quadratureOrder: doc.quadratureOrder ?? 8,
       fullRangeOrder: doc.fullRangeOrder ?? 32,
       scaleFactor: doc.scaleFactor ?? 1,
+      ...(doc.renormalisationScaleFactor !== undefined ? { renormalisationScaleFactor: doc.renormalisationScaleFactor } : {}),
       rangeMode: doc.rangeMode ?? 'integrate'
     }
   }

@@ -5,7 +5,7 @@
 import type { SetKind } from '../types'
 import { scaleBands, type Band } from './band'
 import { alphasVariationError } from './alphas-members'
-import { clScaleFactor } from './confidence'
+import { centralPercentiles, clScaleFactor } from './confidence'
 import { hessianAsymmetric, hessianOneSided, hessianSymmetric } from './hessian'
 import { withoutMembers, type MemberValues, type SpreadOptions } from './matrix'
 import { addInQuadrature } from './in-quadrature'
@@ -29,7 +29,9 @@ export const PRESCRIPTIONS = [
  * - 'hessian-asymmetric': ΔX± of Nadolsky–Sullivan about X₀ (hessianAsymmetric);
  * - 'one-sided': √Σ(X_k − X₀)² about X₀ (hessianOneSided);
  * - 'replica-sd': mean ± sample standard deviation of the replicas (replicaMeanSd);
- * - 'replica-68-interval': median with the 16th–84th percentile interval (replicaMedianInterval).
+ * - 'replica-68-interval': median with the central percentile interval at the requested CL
+ *   (replicaMedianInterval): 15.87th–84.13th at 68 %, 5th–95th at 90 %. The name is kept for
+ *   stored studies and links; the interval follows the CL.
  */
 export type Prescription = typeof PRESCRIPTIONS[number]
 
@@ -67,6 +69,44 @@ export interface BandOptions extends SpreadOptions {
   prescription: Prescription
 }
 
+/**
+ * Which rule made a band's interval, for labels in the pages and exports:
+ * - 'percentile': read from the replicas' own percentiles at the CL (no Gaussian assumption);
+ * - 'gaussian': the prescription's native width (Hessian, or a replica standard deviation),
+ *   multiplied by the Gaussian quantile ratio z(clTo)/z(clFrom) (factor 1 when the CLs agree).
+ */
+export interface IntervalRule {
+  rule: 'percentile' | 'gaussian'
+  /** Words for the rule, e.g. "percentile 5–95 %" or "Hessian, rescaled from 68 % to 90 % CL (Gaussian)". */
+  label: string
+  /** 'percentile': the lower and upper percentiles, in percent. */
+  percentiles?: [number, number]
+  /** 'gaussian': the CL of the set's spread, percent, and the factor applied. */
+  fromClPercent?: number
+  factor?: number
+}
+
+/** A percent figure for a label: up to two decimals, trailing zeros dropped (15.87, 5, 84.13). */
+function percentText(v: number): string {
+  return String(Number(v.toFixed(2)))
+}
+
+/**
+ * The interval rule of a prescription at `clTo` for a set whose spread is at `clFrom`.
+ * @example intervalRule('replica-68-interval', 68, 90).label // 'percentile 5–95 %'
+ * @example intervalRule('hessian-symmetric', 68, 90).label // 'Hessian, rescaled from 68 % to 90 % CL (Gaussian)'
+ */
+export function intervalRule(prescription: Prescription, clFrom: number, clTo: number): IntervalRule {
+  if (prescription === 'replica-68-interval') {
+    const percentiles = centralPercentiles(clTo)
+    return { rule: 'percentile', label: `percentile ${percentiles.map(percentText).join('–')} %`, percentiles }
+  }
+  const what = prescription === 'replica-sd' ? 'replica standard deviation' : 'Hessian'
+  const factor = clScaleFactor(clFrom, clTo)
+  const label = clFrom === clTo ? `${what} at the set's ${percentText(clTo)} % CL` : `${what}, rescaled from ${percentText(clFrom)} % to ${percentText(clTo)} % CL (Gaussian)`
+  return { rule: 'gaussian', label, fromClPercent: clFrom, factor }
+}
+
 /** computeBands' result: the total band plus its parts. */
 export interface BandResult extends Band {
   kind: SetKind
@@ -77,15 +117,17 @@ export interface BandResult extends Band {
   pdf: Band
   /** α_s part ½|X(α_s⁺) − X(α_s⁻)| at clPercent, or null without α_s members. */
   alphas: Float64Array | null
+  /** Which rule made the interval (percentile or Gaussian rescaling), with a label. */
+  interval: IntervalRule
 }
 
 /**
  * Per-bin uncertainty band of one set: the `prescription` applied to the members other than the α_s
  * members, rescaled from `clFrom` to `clTo` by the Gaussian factor z(clTo)/z(clFrom)
  * (clScaleFactor), then ⊕ the α_s error ½|X(α_s⁺) − X(α_s⁻)| rescaled from `alphasCl` to `clTo`
- * (see shared/physics/README.md, "Confidence levels" and "α_s members"). For 'replica-68-interval'
- * the rescaling stretches the 16–84% interval by the Gaussian factor; for the exact percentile
- * interval at another coverage call replicaMedianInterval(matrix, coverage) directly.
+ * (see shared/physics/README.md, "Confidence levels" and "α_s members"). 'replica-68-interval'
+ * is not rescaled: its interval is read from the replicas' percentiles at `clTo` directly
+ * (5–95 % at 90 % CL), whatever `clFrom` says. `interval` says which rule was used.
  *
  * Unit: that of the observable. Domain: a member-value matrix whose member count fits `kind`
  * (central + 2N for pairs, central + N for one-sided, central + N ≥ 2 replicas; α_s members come
@@ -102,12 +144,14 @@ export function computeBands(matrix: MemberValues, options: BandOptions): BandRe
     throw new RangeError(`Prescription '${prescription}'${known} does not apply to a set of kind '${kind}'; use one of: ${valid.join(', ')}.`)
   }
   const pdfMembers = alphasMembers === undefined ? matrix : withoutMembers(matrix, alphasMembers)
-  const native = PRESCRIPTION_FUNCTIONS[prescription](pdfMembers)
-  const pdf = scaleBands(native, clScaleFactor(clFrom, clTo))
-  if (alphasMembers === undefined) return { ...pdf, kind, prescription, clPercent: clTo, pdf, alphas: null }
+  const interval = intervalRule(prescription, clFrom, clTo)
+  const pdf = prescription === 'replica-68-interval'
+    ? replicaMedianInterval(pdfMembers, clTo)
+    : scaleBands(PRESCRIPTION_FUNCTIONS[prescription](pdfMembers), interval.factor!)
+  if (alphasMembers === undefined) return { ...pdf, kind, prescription, clPercent: clTo, pdf, alphas: null, interval }
   const alphasFactor = clScaleFactor(options.alphasCl ?? clFrom, clTo)
   const alphas = alphasVariationError(matrix, alphasMembers).map(v => v * alphasFactor)
-  return { ...addInQuadrature(pdf, alphas), kind, prescription, clPercent: clTo, pdf, alphas }
+  return { ...addInQuadrature(pdf, alphas), kind, prescription, clPercent: clTo, pdf, alphas, interval }
 }
 
 const PRESCRIPTION_FUNCTIONS: Record<Prescription, (matrix: MemberValues) => Band> = {

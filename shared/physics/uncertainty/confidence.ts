@@ -47,6 +47,36 @@ export function clScaleFactor(clFrom: number, clTo: number): number {
   return sigmaMultiple(clTo) / sigmaMultiple(clFrom)
 }
 
+/**
+ * The central probability content, as a fraction, that a band at `clPercent` covers: CL/100,
+ * except that 68 is read as one Gaussian standard deviation, erf(1/√2) = 0.682689492… (the
+ * convention of ONE_SIGMA_CL_PERCENT; see shared/physics/README.md, "Confidence levels"). A
+ * replica set's percentile interval at 68 % therefore runs from the 15.87th to the 84.13th
+ * percentile, and at 90 % from the 5th to the 95th.
+ *
+ * Unit: `clPercent` in percent; result dimensionless in (0, 1).
+ * Method: 2Φ(1) − 1 with jstat's normal CDF for 68; exact division otherwise.
+ * @throws RangeError outside (0, 100).
+ * @example coverageFraction(90) // 0.9
+ * @example coverageFraction(68) // 0.6826894921370859
+ */
+export function coverageFraction(clPercent: number): number {
+  assertCl(clPercent, 'confidence level')
+  if (clPercent === ONE_SIGMA_CL_PERCENT) return 2 * jStat.normal.cdf(1, 0, 1) - 1
+  return clPercent / 100
+}
+
+/**
+ * The lower and upper percentiles (in percent) of the central interval at `clPercent`:
+ * 50 ∓ 50·coverageFraction(clPercent).
+ * @example centralPercentiles(90) // [5, 95]
+ * @example centralPercentiles(68) // [15.865525…, 84.134474…]
+ */
+export function centralPercentiles(clPercent: number): [number, number] {
+  const c = coverageFraction(clPercent)
+  return [50 * (1 - c), 50 * (1 + c)]
+}
+
 function assertCl(clPercent: number, what: string): void {
   if (!Number.isFinite(clPercent) || clPercent <= 0 || clPercent >= 100) {
     throw new RangeError(`The ${what} must be a percentage strictly between 0 and 100 (e.g. 68 or 90); got ${clPercent}.`)

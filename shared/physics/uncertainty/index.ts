@@ -11,12 +11,12 @@ export { type Band, type BandJson, type BandRow, type BandView, makeBands, scale
 
 // One entry point for a study's band
 export {
-  PRESCRIPTIONS, PRESCRIPTIONS_BY_KIND, type Prescription, type BandOptions, type BandResult,
-  isPrescription, prescriptionsFor, computeBands
+  PRESCRIPTIONS, PRESCRIPTIONS_BY_KIND, type Prescription, type BandOptions, type BandResult, type IntervalRule,
+  isPrescription, prescriptionsFor, computeBands, intervalRule
 } from './bands'
 
 // Confidence levels
-export { ONE_SIGMA_CL_PERCENT, sigmaMultiple, clScaleFactor } from './confidence'
+export { ONE_SIGMA_CL_PERCENT, sigmaMultiple, clScaleFactor, coverageFraction, centralPercentiles } from './confidence'
 
 // Prescriptions one by one
 export { eigenvectorCount, eigenvectorDeviations, hessianSymmetric, hessianAsymmetric, hessianOneSided } from './hessian'

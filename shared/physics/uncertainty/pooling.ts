@@ -68,7 +68,7 @@ export interface PooledSets {
   replicasPerSet: number
   /** Mean ± sample standard deviation of the pool, 68% CL. */
   sd: Band
-  /** Median and 16th–84th percentile interval of the pool. */
+  /** Median and 15.87th–84.13th percentile (1σ) interval of the pool. */
   interval: Band
 }
 
@@ -78,7 +78,7 @@ export interface PooledSets {
  * the first ones of a replica set (rescaled about the mean of all its replicas to 68% CL if
  * clFrom ≠ 68), or
  * Watt–Thorne replicas of a Hessian set (hessianToReplicas) — pooled with equal weight, then
- * mean ± sd and the 68% interval of the pool.
+ * mean ± sd and the 1σ percentile interval (15.87–84.13 %) of the pool.
  *
  * Unit: that of the observable. Domain: at least one set; every set with the same bins;
  * replica sets with at least `replicasPerSet` replicas; replicasPerSet ≥ 2; seed an integer

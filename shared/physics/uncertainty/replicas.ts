@@ -4,6 +4,7 @@
  */
 import { makeBands, type Band } from './band'
 import { assertMemberValues, type MemberValues } from './matrix'
+import { coverageFraction } from './confidence'
 import { quantilesOfSorted } from './quantile'
 
 /**
@@ -61,25 +62,27 @@ export function replicaMeanSd(matrix: MemberValues): Band {
 }
 
 /**
- * Replica band from the median and the central `coveragePercent` interval: with
- * p± = (100 ± coverage)/200, central = Q(½), plus = Q(p₊) − Q(½), minus = Q(½) − Q(p₋), Q the
- * sample quantile of members 1..N by linear interpolation between order statistics
- * (sampleQuantile; Hyndman–Fan definition 7). The default 68 gives the 16th and 84th percentiles
- * (common practice for skewed replica distributions; see shared/physics/README.md,
- * "Replica sets").
+ * Replica band from the median and the central interval at confidence level `clPercent`, read
+ * from the replicas' own percentiles (no Gaussian assumption): with c = coverageFraction(CL) and
+ * p± = (1 ± c)/2, central = Q(½), plus = Q(p₊) − Q(½), minus = Q(½) − Q(p₋), Q the sample
+ * quantile of members 1..N by linear interpolation between order statistics (sampleQuantile;
+ * Hyndman–Fan definition 7). 90 gives the 5th and 95th percentiles; 68 means one Gaussian σ and
+ * gives the 15.87th and 84.13th (see shared/physics/README.md, "Replica sets" and "Confidence
+ * levels"; common practice for skewed replica distributions).
  *
- * Unit: that of the observable. Domain: N ≥ 2 replicas, 0 < coveragePercent < 100.
+ * Unit: that of the observable. Domain: N ≥ 2 replicas, 0 < clPercent < 100.
  * Method: one sort per bin, O(B · N log N).
- * @throws RangeError for fewer than two replicas or a coverage outside (0, 100).
- * @example replicaMedianInterval(memberValuesFromRows([[0], [1], [2], [3], [4], [5]])) // central [3], plus [1.36], minus [1.36]
+ * @throws RangeError for fewer than two replicas or a CL outside (0, 100).
+ * @example replicaMedianInterval(memberValuesFromRows([[0], [1], [2], [3], [4], [5]]), 90) // central [3], plus [1.8], minus [1.8]
  */
-export function replicaMedianInterval(matrix: MemberValues, coveragePercent = 68): Band {
-  if (!(coveragePercent > 0 && coveragePercent < 100)) {
-    throw new RangeError(`The coverage of a replica interval must be a percentage strictly between 0 and 100; got ${coveragePercent}.`)
+export function replicaMedianInterval(matrix: MemberValues, clPercent = 68): Band {
+  if (!(clPercent > 0 && clPercent < 100)) {
+    throw new RangeError(`The confidence level of a replica interval must be a percentage strictly between 0 and 100; got ${clPercent}.`)
   }
   const n = replicaCount(matrix)
   const { bins, values } = matrix
-  const probabilities = [(100 - coveragePercent) / 200, 0.5, (100 + coveragePercent) / 200]
+  const c = coverageFraction(clPercent)
+  const probabilities = [(1 - c) / 2, 0.5, (1 + c) / 2]
   const central = new Float64Array(bins)
   const plus = new Float64Array(bins)
   const minus = new Float64Array(bins)

@@ -36,9 +36,10 @@ describe('sheaf bands', () => {
   it('writes one CSV line per set and bin', async () => {
     const run = await sheaf(['bands', hessianFile, '--format', 'csv'])
     const lines = run.stdout.trimEnd().split('\r\n')
-    expect(lines[0]).toBe('set,bin,central,plus,minus,relPlus,relMinus,pdfPlus,pdfMinus,alphas,prescription,clPercent')
+    expect(lines[0]).toBe('set,bin,central,plus,minus,relPlus,relMinus,pdfPlus,pdfMinus,alphas,prescription,clPercent,interval,quadratureError,scaleUp,scaleDown,scaleVariation')
     expect(lines).toHaveLength(3)
     expect(lines[1]!.startsWith('hessian,1,10,')).toBe(true)
+    expect(lines[1]!.endsWith(',hessian-symmetric,68,"Hessian, rescaled from 90 % to 68 % CL (Gaussian)",,,,')).toBe(true)
   })
 
   it('adds the α_s members in quadrature and reports both parts', async () => {

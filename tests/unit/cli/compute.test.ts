@@ -1,7 +1,8 @@
 import { readFileSync } from 'node:fs'
 import { afterAll, describe, expect, it } from 'vitest'
 import { parseSetFile } from '../../../shared/physics/sets'
-import { buildPlan, evaluatePlan, parseStudySpec } from '../../../shared/physics/study'
+import { buildPlan, evaluatePlan, parseStudySpec, scaleVariation } from '../../../shared/physics/study'
+import { setAlphas } from '../../../scripts/cli/set-file'
 import { computeBands, memberValuesFromRows } from '../../../shared/physics/uncertainty'
 import { oneLine, scratch, sheaf } from './run'
 
@@ -92,5 +93,33 @@ describe('sheaf compute', () => {
     expect(run.code).toBe(code)
     expect(run.stdout).toBe('')
     expect(oneLine(run)).toMatch(message)
+  })
+
+  it('prints the scale variation apart from the PDF band: 7-point μ_F, μ_R for gg → H', async () => {
+    const run = await sheaf(['compute', 'samples/studies/higgs-total.json', hessianFile])
+    expect(run.code).toBe(0)
+    const out = JSON.parse(run.stdout).sets[0]
+    expect(out.scaleVariation).toMatchObject({ variation: '7-point μ_F, μ_R' })
+    expect(out.scaleVariation.points).toHaveLength(7)
+    const set = parseSetFile(readFileSync(hessianFile))
+    const spec = parseStudySpec(JSON.parse(readFileSync('samples/studies/higgs-total.json', 'utf8')))
+    const engine = scaleVariation(spec, set, set.members[0]!, { alphas: setAlphas(set.header) })
+    expect(out.scaleVariation.rows[0]).toMatchObject({ bin: 1, nominal: engine.nominal[0], up: engine.up[0], down: engine.down[0] })
+    // μ_R = M_H/2 raises α_s, so the upward variation is at least tens of per cent at LO (common practice)
+    expect(out.scaleVariation.rows[0].up / out.scaleVariation.rows[0].nominal).toBeGreaterThan(0.1)
+    expect(out.bands.scaleVariation).toBe('7-point μ_F, μ_R')
+    expect(out.bands.rows[0].scaleUp).toBe(engine.up[0])
+    expect(out.quadrature).toMatchObject({ order: 8, checkOrder: 16 })
+    expect(out.bands.rows[0].quadratureError).toBe(out.quadrature.error[0])
+  })
+
+  it('a kernel without α_s gets the 3-point μ_F variation and a quadrature error per bin', async () => {
+    const run = await sheaf(['compute', tmp.file('dy-scale.json', JSON.stringify({ ...studyDoc, bins: [{ m: 30, y: 0 }, { m: 60, yMin: 0.5, yMax: 1 }, { mMin: 80, mMax: 100, yMin: 0, yMax: 1 }] })), hessianFile])
+    const out = JSON.parse(run.stdout).sets[0]
+    expect(out.scaleVariationError).toBeUndefined()
+    expect(out.scaleVariation.variation).toBe('3-point μ_F')
+    expect(out.scaleVariation.rows).toHaveLength(3)
+    expect(out.quadrature.error).toHaveLength(3)
+    for (const e of out.quadrature.error) expect(e).toBeGreaterThanOrEqual(0)
   })
 })

@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest'
 import { makeAlphas } from '../../../../shared/physics/alphas'
-import { f2NeutralCurrent, integrateOverRapidity, rapidityReach, vectorBosonTerm } from '../../../../shared/physics/kernels'
+import { f2NeutralCurrent, integrateOverRapidity, kernelLabel, rapidityReach, vectorBosonTerm } from '../../../../shared/physics/kernels'
 import { toyErrorSet, toyQ2Nodes, toyXNodes, toyXf } from '../../../../shared/physics/sets'
 import {
   StudyReachError, buildPlan, checkReach, evaluateDirect, evaluatePlan, parseStudySpec, scaleVariation
@@ -95,6 +95,38 @@ describe('evaluation plan against direct interpolation', () => {
     const r = evaluatePlan(plan, [set.members[0]!], [nuclear.members[0]!])
     const withIsospinOnly = evaluatePlan(buildPlan(spec, set), [set.members[0]!])
     expect(r[0]! / withIsospinOnly[0]!).toBeCloseTo(0.9, 2)
+  })
+})
+
+describe('nuclear ratio with a DIS base: free-proton or isospin (Z·p + N·n)/A denominator', () => {
+  // R = F₂^A/F₂^{denominator} per nucleon (shared/physics/README.md, "Nuclear targets and
+  // isospin"; neutron from the proton by isospin, u ↔ d, ESW ch. 4).
+  const doc = (denominator?: string) => ({ kernel: 'nuclear-ratio', options: { base: 'dis-nc-f2', nucleus: { z: 82, a: 208 }, ...(denominator ? { denominator } : {}) }, bins: [{ x: 0.05, q2: 10 }, { x: 0.3, q2: 100 }] })
+
+  it('without nuclear effects the isospin denominator gives exactly 1; the proton one gives (Z F₂ᵖ + N F₂ⁿ)/(A F₂ᵖ)', () => {
+    const iso = evaluatePlan(buildPlan(parseStudySpec(doc('isospin')), set), [set.members[0]!])
+    expect(Array.from(iso)).toEqual([1, 1])
+    const free = evaluatePlan(buildPlan(parseStudySpec(doc()), set), [set.members[0]!])
+    // reference from the analytic toy at the bins' points, by the F₂ formula on proton and neutron
+    const toy = (pdg: number, xx: number, qq: number) => toyXf(pdg, xx, qq, scheme)
+    ;[[0.05, 10], [0.3, 100]].forEach(([xb, qb], i) => {
+      const p = f2NeutralCurrent(toy, xb!, qb!, { type: 'proton' })
+      const n = f2NeutralCurrent(toy, xb!, qb!, { type: 'neutron' })
+      expect(Math.abs(free[i]! / ((82 * p + 126 * n) / (208 * p)) - 1)).toBeLessThan(3e-3)
+    })
+    // the free-proton ratio differs from 1 by the isospin effect alone, which the isospin denominator removes
+    expect(Math.abs(free[1]! - 1)).toBeGreaterThan(0.01)
+  })
+
+  it('with the nuclear set (baseline × 0.9) the isospin ratio is 0.9 at both bins', () => {
+    const r = evaluatePlan(buildPlan(parseStudySpec(doc('isospin')), set, { second: nuclear }), [set.members[0]!], [nuclear.members[0]!])
+    for (const v of r) expect(v).toBeCloseTo(0.9, 2)
+  })
+
+  it('labels which denominator is used', () => {
+    expect(kernelLabel('nuclear-ratio', doc('isospin').options)).toMatch(/\(Z·p \+ N·n\)\/A of Z = 82, A = 208 \(isospin-corrected\)/)
+    expect(kernelLabel('nuclear-ratio', doc().options)).toMatch(/over a free proton/)
+    expect(() => parseStudySpec({ ...doc(), options: { ...doc().options, denominator: 'deuteron' } })).toThrow(/^option denominator: /)
   })
 })
 

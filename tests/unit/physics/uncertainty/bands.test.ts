@@ -50,12 +50,38 @@ describe('computeBands dispatch', () => {
     { rows: [[10], [13], [6]], kind: 'hessian-one-sided' as const, prescription: 'one-sided' as const, central: 10, plus: 5, minus: 5 },
     // replicas 1..4: mean 2.5, sd √(5/3)
     { rows: [[0], [1], [2], [3], [4]], kind: 'replicas' as const, prescription: 'replica-sd' as const, central: 2.5, plus: Math.sqrt(5 / 3), minus: Math.sqrt(5 / 3) },
-    // replicas 1..4: median 2.5, Q(0.84) − 2.5 = 1.02, 2.5 − Q(0.16) = 1.02 (Hyndman–Fan 7, hand-worked)
-    { rows: [[0], [1], [2], [3], [4]], kind: 'replicas' as const, prescription: 'replica-68-interval' as const, central: 2.5, plus: 1.02, minus: 1.02 }
+    // replicas 1..4: median 2.5, 1σ percentiles p = 0.158655 → h = 0.47597 (Hyndman–Fan 7,
+    // hand-worked): plus = minus = 1.5 − 0.47597 = 1.02403
+    { rows: [[0], [1], [2], [3], [4]], kind: 'replicas' as const, prescription: 'replica-68-interval' as const, central: 2.5, plus: 1.5 - 3 * 0.15865525393145707, minus: 1.5 - 3 * 0.15865525393145707 }
   ])('$prescription: hand-worked', ({ rows, kind, prescription, central, plus, minus }) => {
     const band = computeBands(memberValuesFromRows(rows), { kind, prescription })
     expectClose([band.central[0]!, band.plus[0]!, band.minus[0]!], [central, plus, minus], 1e-13)
     expect(band.alphas).toBeNull()
+  })
+
+  it('replica percentile interval at 90% CL comes from the 5th and 95th percentiles, not a Gaussian rescaling', () => {
+    // skewed replicas 1..20 and 100: sorted, Q(p) with h = 20p (Hyndman–Fan 7)
+    // Q(0.05) = x(1) = 2, Q(0.5) = x(10) = 11, Q(0.95) = x(19) = 20 (0-based order statistics)
+    const rows = [[0], ...Array.from({ length: 20 }, (_, i) => [i + 1]), [100]]
+    const band = computeBands(memberValuesFromRows(rows), { kind: 'replicas', prescription: 'replica-68-interval', clFrom: 68, clTo: 90 })
+    expectClose([band.central[0]!, band.plus[0]!, band.minus[0]!], [11, 9, 9], 1e-13)
+    expect(band.interval).toMatchObject({ rule: 'percentile', label: 'percentile 5–95 %' })
+    expectClose(band.interval.percentiles!, [5, 95], 1e-14)
+    // the old rule (68% interval × 1.644854) would have given minus = (11 − Q(0.158655)) · 1.645 ≈ 12.9
+    expect(band.minus[0]!).toBeLessThan(10)
+    const at68 = computeBands(memberValuesFromRows(rows), { kind: 'replicas', prescription: 'replica-68-interval' })
+    expect(at68.interval.label).toBe('percentile 15.87–84.13 %')
+  })
+
+  it('labels a Hessian band rescaled by the Gaussian quantile ratio', () => {
+    const band = computeBands(hessian, { kind: 'hessian-pairs', prescription: 'hessian-symmetric', clFrom: 68, clTo: 90, alphasMembers: [3, 4] })
+    expect(band.interval).toMatchObject({ rule: 'gaussian', label: 'Hessian, rescaled from 68 % to 90 % CL (Gaussian)', fromClPercent: 68 })
+    expectClose(band.interval.factor!, z90, 5e-7)
+    expectClose(band.pdf.plus, [z90], 5e-7)
+    const native = computeBands(hessian, { kind: 'hessian-pairs', prescription: 'hessian-symmetric', clFrom: 90, clTo: 90 })
+    expect(native.interval.label).toBe("Hessian at the set's 90 % CL")
+    const sd = computeBands(memberValuesFromRows([[0], [1], [2], [3], [4]]), { kind: 'replicas', prescription: 'replica-sd', clTo: 90 })
+    expect(sd.interval.label).toBe('replica standard deviation, rescaled from 68 % to 90 % CL (Gaussian)')
   })
 
   it('refuses a prescription that does not fit the kind, naming the valid ones', () => {

@@ -28,12 +28,17 @@ describe('mean ± sample standard deviation', () => {
 })
 
 describe('median and central interval', () => {
+  // 1σ is the 15.87th to 84.13th percentile: p± = (1 ± erf(1/√2))/2 = 0.158655254 / 0.841344746
+  // (erf(1/√2) = 0.682689492, the Gaussian one-sigma content, PDG review "Statistics", table of
+  // Gaussian tail areas, from memory).
+  const pLo = 0.15865525393145707
   it.each([
-    // sorted 1 2 3 4: median 2.5, Q(0.16) = 1.48, Q(0.84) = 3.52 (h = 0.48 and 2.52)
-    { replicas: [1, 2, 3, 4], central: 2.5, plus: 1.02, minus: 1.02 },
-    // skewed, sorted 1 2 3 4 10: median 3, Q(0.16) = 1.64, Q(0.84) = 4 + 0.36·6 = 6.16
-    { replicas: [1, 2, 3, 10, 4], central: 3, plus: 3.16, minus: 1.36 }
-  ])('hand-worked 68% interval of $replicas', ({ replicas, central, plus, minus }) => {
+    // sorted 1 2 3 4: median 2.5; h = 3·pLo = 0.47597 → Q = 1.47597, and symmetric above
+    { replicas: [1, 2, 3, 4], central: 2.5, plus: 1.5 - 3 * pLo, minus: 1.5 - 3 * pLo },
+    // skewed, sorted 1 2 3 4 10: median 3; h = 4·pLo = 0.63462 → Q(pLo) = 1.63462;
+    // h = 4·(1 − pLo) = 3.36538 → Q = 4 + 0.36538·6 = 6.19228
+    { replicas: [1, 2, 3, 10, 4], central: 3, plus: 1 + 6 * (1 - 4 * pLo), minus: 2 - 4 * pLo }
+  ])('hand-worked 1σ (68%) interval of $replicas', ({ replicas, central, plus, minus }) => {
     const band = replicaMedianInterval(memberValuesFromRows([[0], ...replicas.map(v => [v])]))
     expectClose(band.central[0]!, central, 1e-14)
     expectClose(band.plus[0]!, plus, 1e-13)
@@ -44,6 +49,13 @@ describe('median and central interval', () => {
     // 1..21: Q(0.05) = 1 + 20·0.05 = 2, Q(0.95) = 20, median 11
     const band = replicaMedianInterval(memberValuesFromRows([[0], ...Array.from({ length: 21 }, (_, i) => [i + 1])]), 90)
     expectClose([band.central[0]!, band.plus[0]!, band.minus[0]!], [11, 9, 9], 1e-13)
+  })
+
+  it('68% CL is the 15.87–84.13 percentile interval, not 16–84', () => {
+    // 1..101: Q(p) = 1 + 100p, so the 1σ interval is [16.8655, 85.1345] about the median 51
+    const band = replicaMedianInterval(memberValuesFromRows([[0], ...Array.from({ length: 101 }, (_, i) => [i + 1])]), 68)
+    expectClose([band.minus[0]!, band.plus[0]!], [51 - (1 + 100 * pLo), 100 * (1 - pLo) + 1 - 51], 1e-13)
+    expect(Math.abs(band.minus[0]! - 34)).toBeGreaterThan(0.1)
   })
 
   it.each([0, 100, -1])('rejects coverage %s', (coverage) => {
