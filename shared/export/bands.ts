@@ -35,12 +35,15 @@ const bandCells = ({ band }: LabelledBand, i: number) =>
  */
 export function bandsToCsv(result: ResultForExport): string {
   checkResult(result)
+  const perBin = result.observable.perBin
   const header = [
     ...result.binColumns.map(c => c.key),
+    ...(perBin ? ['observable'] : []),
     ...result.bands.flatMap(b => ['central', 'plus', 'minus', 'rel_plus_pct', 'rel_minus_pct'].map(h => `${h}[${b.id}]`))
   ]
   const lines = result.bins.map((bin, i) => [
     ...result.binColumns.map(c => bin[c.key] ?? null),
+    ...(perBin ? [perBin[i] ?? null] : []),
     ...result.bands.flatMap(b => bandCells(b, i))
   ])
   const units = result.binColumns.filter(c => c.unit).map(c => `${c.key} [${c.unit}]`)
@@ -66,6 +69,7 @@ export function bandsToJson(result: ResultForExport) {
     bins: result.bins.map((bin, i) => ({
       index: i + 1,
       kinematics: Object.fromEntries(result.binColumns.map(c => [c.key, bin[c.key] ?? null])),
+      ...(result.observable.perBin ? { observable: result.observable.perBin[i] ?? null } : {}),
       values: Object.fromEntries(result.bands.map((b) => {
         const [central, plus, minus, relPlusPercent, relMinusPercent] = bandCells(b, i)
         return [b.id, { central, plus, minus, relPlusPercent, relMinusPercent }]

@@ -7,10 +7,11 @@ import type { ExportObservable, ExportProvenance, LabelledBand, ResultForExport 
 import { bandToJson, makeBands } from '../../../shared/physics/uncertainty/band'
 import * as C from '../../../shared/physics/constants'
 import { kernelDefinition } from '../../../shared/physics/kernels/registry'
-import { BIN_COLUMNS, resultUnit, type StudySpec } from '../../../shared/physics/study/spec'
+import { BIN_COLUMNS, type StudySpec } from '../../../shared/physics/study/spec'
 import type { SetHeader } from '../../../shared/physics/types'
 import type { Prescription } from '../../../shared/physics/uncertainty/bands'
 import { PRESCRIPTION_LABELS } from '../../../shared/utils/prescriptions'
+import { studyObservable } from '../../../shared/bins/observable'
 import { userNames } from './results'
 
 const COLUMN_LABELS: Record<string, { label: string, unit?: string }> = {
@@ -46,11 +47,10 @@ function kernelConstants(spec: StudySpec): Record<string, number | string | bool
   return out
 }
 
+/** The observable of every export: named and given its unit from the bin layout (shared/bins/observable.ts). */
 export function exportObservable(spec: StudySpec): ExportObservable {
-  const def = kernelDefinition(spec.kernel)
-  const name = def.composite ? def.title : def.quantity
-  const unit = resultUnit(spec)
-  return { name, ...(unit !== '1' ? { unit } : {}) }
+  const { name, latex, unit, perBin } = studyObservable(spec)
+  return { name, ...(unit ? { unit } : {}), ...(latex ? { latex } : {}), ...(perBin ? { perBin } : {}) }
 }
 
 /** The provenance block of every export of result `r`. */
