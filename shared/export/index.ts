@@ -7,7 +7,7 @@ export { RESULT_CAUTION, RESULT_CAUTION_SHORT } from './caution'
 // Provenance
 export { approvalText, confidenceText, provenanceLines, provenanceObject, setText } from './provenance'
 // Number rounding for printed tables
-export { decimalExponent, roundDecimal, roundMeasurement, roundSignificant } from './numbers'
+export { decimalExponent, pdgErrorDecimals, roundDecimal, roundMeasurement, roundSignificant } from './numbers'
 export type { RoundedMeasurement, RoundingOptions } from './numbers'
 // CSV writer (RFC 4180, CRLF) used by every CSV Sheaf writes
 export { CSV_EOL, csvLine, csvNumber, writeCsv } from './csv'
