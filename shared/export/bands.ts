@@ -35,6 +35,24 @@ const bandCells = ({ band }: LabelledBand, i: number) =>
  */
 export function bandsToCsv(result: ResultForExport): string {
   checkResult(result)
+  const comments = [
+    ...provenanceLines(result.provenance, result.observable, 'bands'),
+    ...csvColumnNotes(result)
+  ]
+  return bandsCsvRecords(result, comments)
+}
+
+/** The CSV comment lines that explain the columns (units, band ids). */
+export function csvColumnNotes(result: Pick<ResultForExport, 'binColumns' | 'observable' | 'bands'>): string[] {
+  const units = result.binColumns.filter(c => c.unit).map(c => `${c.key} [${c.unit}]`)
+  return [
+    `columns: ${[...units, `central/plus/minus [${result.observable.unit ?? 'dimensionless'}]`, 'rel_*_pct [%]'].join(', ')}`,
+    `bands: ${result.bands.map(b => `${b.id} = ${b.label}`).join('; ')}`
+  ]
+}
+
+/** The records of {@link bandsToCsv} under the given comment lines. */
+export function bandsCsvRecords(result: Omit<ResultForExport, 'provenance'>, comments: string[]): string {
   const perBin = result.observable.perBin
   const header = [
     ...result.binColumns.map(c => c.key),
@@ -46,12 +64,6 @@ export function bandsToCsv(result: ResultForExport): string {
     ...(perBin ? [perBin[i] ?? null] : []),
     ...result.bands.flatMap(b => bandCells(b, i))
   ])
-  const units = result.binColumns.filter(c => c.unit).map(c => `${c.key} [${c.unit}]`)
-  const comments = [
-    ...provenanceLines(result.provenance, result.observable, 'bands'),
-    `columns: ${[...units, `central/plus/minus [${result.observable.unit ?? 'dimensionless'}]`, 'rel_*_pct [%]'].join(', ')}`,
-    `bands: ${result.bands.map(b => `${b.id} = ${b.label}`).join('; ')}`
-  ]
   return writeCsv([header, ...lines], { comments })
 }
 
@@ -62,6 +74,13 @@ export function bandsToJson(result: ResultForExport) {
     format: 'sheaf-bands',
     formatVersion: 1,
     provenance: provenanceObject(result.provenance),
+    ...bandsJsonBody(result)
+  }
+}
+
+/** Everything of {@link bandsToJson} after the provenance: caution, observable, columns, bins. */
+export function bandsJsonBody(result: Omit<ResultForExport, 'provenance'>) {
+  return {
     caution: RESULT_CAUTION,
     observable: result.observable,
     columns: result.binColumns.map(({ key, label, unit }) => ({ key, label, ...(unit ? { unit } : {}) })),

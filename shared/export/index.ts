@@ -14,8 +14,10 @@ export { CSV_EOL, csvLine, csvNumber, writeCsv } from './csv'
 export type { CsvCell, CsvWriteOptions } from './csv'
 // Formats
 export { bandsToCsv, bandsToJson, bandsToJsonText, checkResult } from './bands'
-export { bandsToLatex, latexMeasurement, latexNumber, latexText } from './latex'
-export type { LatexTableOptions } from './latex'
+export { bandsToLatex, latexMeasurement, latexNumber, latexTable, latexText } from './latex'
+export type { LatexTableInput, LatexTableOptions } from './latex'
+export { studyProvenanceLines, studyToCsv, studyToJson, studyToJsonText, studyToLatex } from './study'
+export type { StudyForExport } from './study'
 export { matrixToCsv } from './matrices'
 // Figures (plain Plotly-shaped objects)
 export { CORRELATION_SCALE, FIGURE_FONT, FIGURE_INK, FIGURE_PALETTE, axisTitle, bandFigure, correlationFigure, eigenvectorFigure, forwardImages, houseAxis, houseConfig, houseLayout, tryFigure, withAlpha } from './figures'

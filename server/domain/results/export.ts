@@ -12,7 +12,10 @@ import type { SetHeader } from '../../../shared/physics/types'
 import type { Prescription } from '../../../shared/physics/uncertainty/bands'
 import { PRESCRIPTION_LABELS } from '../../../shared/utils/prescriptions'
 import { studyObservable } from '../../../shared/bins/observable'
-import { userNames } from './results'
+import type { StudyForExport } from '../../../shared/export/study'
+import { fail } from '../errors'
+import { latestDoneResults } from '../studies/studies'
+import { reportingChoice, resultBands, resultSetHeader, userNames } from './results'
 
 const COLUMN_LABELS: Record<string, { label: string, unit?: string }> = {
   x: { label: 'x' }, xMin: { label: 'x min' }, xMax: { label: 'x max' },
@@ -98,5 +101,41 @@ export function resultForExport(
     binColumns: exportColumns(spec),
     bins: spec.bins.map(b => ({ ...b }) as GridRow),
     bands: exportBands
+  }
+}
+
+/**
+ * A study's newest finished result on each of its sets, side by side (shared/export/study.ts),
+ * each at the study's prescription for its kind and at `clPercent` (default the study's CL as
+ * run). 409 when none has finished or when they ran on different bins.
+ */
+export async function studyForExport(db: DB, study: Study, query: { cl?: number }, exportedBy: string): Promise<StudyForExport> {
+  const results = await latestDoneResults(db, study.id, study.setIds)
+  if (!results.length) fail(409, 'No finished results to export yet; run the study first')
+  if (new Set(results.map(r => JSON.stringify(r.specSnapshot.spec.bins))).size > 1) {
+    fail(409, 'The newest results were computed on different bins (the study was edited between runs); run the study again on every set')
+  }
+  const ids = new Set<string>()
+  const sets = await Promise.all(results.map(async (r) => {
+    const header = await resultSetHeader(db, r)
+    const { prescription, clPercent } = reportingChoice(r, header, { cl: query.cl })
+    const band = await resultBands(db, r, header, prescription, clPercent)
+    const provenance = await exportProvenance(db, r, study, header, prescription, clPercent, exportedBy)
+    return { r, provenance, band }
+  }))
+  const spec = results[0]!.specSnapshot.spec
+  return {
+    study: { id: study.id, name: study.name },
+    observable: exportObservable(spec),
+    binColumns: exportColumns(spec),
+    bins: spec.bins.map(b => ({ ...b }) as GridRow),
+    sets: sets.map(({ r, provenance, band }) => {
+      let id = `${r.specSnapshot.set.name}-${r.specSnapshot.set.version}`.replace(/[^\w.-]+/g, '_')
+      while (ids.has(id)) id += '_'
+      ids.add(id)
+      return { id, provenance, band }
+    }),
+    exportedBy,
+    exportedAt: new Date()
   }
 }

@@ -56,6 +56,7 @@ const routes: WorkspaceRoute[] = [
   { method: 'DELETE', path: study, minRole: 'owner', tryAllowed: false },
   { method: 'POST', path: w => `${study(w)}/run`, minRole: 'analyst', tryAllowed: false },
   { method: 'GET', path: w => `${study(w)}/comparison`, minRole: 'viewer' },
+  { method: 'GET', path: w => `${study(w)}/export?format=latex`, minRole: 'viewer' },
   { method: 'GET', path: w => `${study(w)}/measurements`, minRole: 'viewer' },
   { method: 'POST', path: w => `${study(w)}/measurements`, body: () => ({ name: 'more data', csv: csv(3) }), minRole: 'analyst' },
   { method: 'GET', path: measurement, minRole: 'viewer' },
@@ -84,7 +85,7 @@ describe('workflow role matrix', () => {
     const mine = base(ws)
     const paths = [
       `${mine}/sets/${otherIds.set}`, `${mine}/sets/${otherIds.set}/file`,
-      `${mine}/studies/${otherIds.study}`, `${mine}/studies/${otherIds.study}/comparison`,
+      `${mine}/studies/${otherIds.study}`, `${mine}/studies/${otherIds.study}/comparison`, `${mine}/studies/${otherIds.study}/export?format=csv`,
       `${mine}/studies/${otherIds.study}/measurements/${otherIds.measurement}`,
       `${mine}/studies/${ids.study}/measurements/${otherIds.measurement}`,
       `${mine}/results/${otherIds.result}`, `${mine}/results/${otherIds.result}/export?format=json`
