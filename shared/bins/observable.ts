@@ -43,7 +43,7 @@ export interface ObservableIssue {
 }
 
 /** The part of a study the observable depends on (a StudySpec, or a draft with the same fields). */
-export type ObservableSpec = Pick<StudySpec, 'kernel' | 'options' | 'bins'> & { rangeMode?: StudySpec['rangeMode'] }
+export type ObservableSpec = Pick<StudySpec, 'kernel' | 'options' | 'bins'> & { rangeMode?: string }
 
 /** The kernels that give a derivative: base symbol and the variables it is differential in, in print order. */
 const DIFFERENTIAL: Record<string, VariableName[]> = {
@@ -131,7 +131,7 @@ function singleObservable(def: KernelDefinition, options: Record<string, unknown
 /** The observable of bin `row` of the spec (0-based `index` only for messages). */
 export function binObservable(spec: ObservableSpec, row: ObservableSpec['bins'][number]): Observable {
   const def = kernelDefinition(spec.kernel)
-  const mode = spec.rangeMode ?? 'integrate'
+  const mode = spec.rangeMode === 'average' ? 'average' : 'integrate'
   const options = spec.options as Record<string, unknown>
   const names = kernelVariables(def, options).map(v => v.name)
   const layout = layoutOf(row, names)
@@ -189,7 +189,7 @@ export function studyObservable(spec: ObservableSpec): Observable {
   if (distinct.length === 1) return distinct[0]!
   return {
     name: distinct.map(o => o.name).join(' or '),
-    latex: distinct.every(o => o.latex) ? distinct.map(o => o.latex).join('\ \mathrm{or}\ ') : '',
+    latex: distinct.every(o => o.latex) ? distinct.map(o => o.latex).join('\\ \\mathrm{or}\\ ') : '',
     unit: distinct[0]!.unit,
     perBin: each.map(o => o.name)
   }
