@@ -329,7 +329,9 @@ describe('review', () => {
     const submit = await ws.analyst.client.post(`${url}/submit`, { comment: 'ready' })
     expect(submit.body.reviewState).toBe('submitted')
     const ownerMail = await waitForMail(ws.owner.email, /submitted/, since)
-    expect(ownerMail.textBody).toContain(`${ws.analyst.name} submitted "Review me"`)
+    // The mail names the study, the set with its version, and the result version.
+    expect(ownerMail.textBody).toMatch(new RegExp(`${ws.analyst.name} submitted study "Review me" on set study-h \\S+, result version 1 for sign-off`))
+    expect(ownerMail.subject).toMatch(/^Sheaf: Review me on set study-h \S+, result v1 submitted$/)
     expect((await ws.analyst.client.post(`${url}/submit`, {})).status).toBe(409)
     expect((await ws.analyst.client.post(`${url}/approve`, {})).status).toBe(403)
     const noComment = await ws.owner.client.post(`${url}/return`, {})
