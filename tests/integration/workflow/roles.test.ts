@@ -48,6 +48,7 @@ const routes: WorkspaceRoute[] = [
   { method: 'GET', path: w => `${set(w)}/densities?q2=10&flavours=21,uv`, minRole: 'viewer' },
   { method: 'GET', path: w => `${set(w)}/sum-rules?q2=10`, minRole: 'viewer' },
   { method: 'POST', path: w => `${base(w)}/sets/builds`, body: () => ({ input: {} }), minRole: 'analyst', tryAllowed: false },
+  { method: 'POST', path: w => `${base(w)}/sets/examples`, minRole: 'analyst', tryAllowed: false },
   { method: 'GET', path: w => `${base(w)}/studies`, minRole: 'viewer' },
   { method: 'POST', path: w => `${base(w)}/studies`, body: () => ({ name: 'another', spec: f2Spec(2), setIds: [ids.set] }), minRole: 'analyst' },
   { method: 'POST', path: w => `${base(w)}/studies/validate`, body: () => ({ spec: f2Spec(2), setIds: [ids.set] }), minRole: 'viewer' },
