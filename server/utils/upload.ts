@@ -113,7 +113,8 @@ export async function readMeasurementUpload(event: H3Event): Promise<Measurement
     name: formText(form, 'name') ?? points.name.replace(/\.[^.]*$/, ''),
     csv: points.text(),
     ...(correlationFile ? { correlation: correlationFile.text() } : correlationText ? { correlation: correlationText } : {}),
-    ...(formText(form, 'correlationOf') ? { correlationOf: formText(form, 'correlationOf') } : {})
+    ...(formText(form, 'correlationOf') ? { correlationOf: formText(form, 'correlationOf') } : {}),
+    ...(formText(form, 'systCombination') ? { systCombination: formText(form, 'systCombination') } : {})
   }
   const parsed = measurementJsonSchema.safeParse(value)
   if (!parsed.success) {

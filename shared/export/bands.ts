@@ -35,20 +35,35 @@ const bandCells = ({ band }: LabelledBand, i: number) =>
  */
 export function bandsToCsv(result: ResultForExport): string {
   checkResult(result)
+  const comments = [
+    ...provenanceLines(result.provenance, result.observable, 'bands'),
+    ...csvColumnNotes(result)
+  ]
+  return bandsCsvRecords(result, comments)
+}
+
+/** The CSV comment lines that explain the columns (units, band ids). */
+export function csvColumnNotes(result: Pick<ResultForExport, 'binColumns' | 'observable' | 'bands'>): string[] {
+  const units = result.binColumns.filter(c => c.unit).map(c => `${c.key} [${c.unit}]`)
+  return [
+    `columns: ${[...units, `central/plus/minus [${result.observable.unit ?? 'dimensionless'}]`, 'rel_*_pct [%]'].join(', ')}`,
+    `bands: ${result.bands.map(b => `${b.id} = ${b.label}`).join('; ')}`
+  ]
+}
+
+/** The records of {@link bandsToCsv} under the given comment lines. */
+export function bandsCsvRecords(result: Omit<ResultForExport, 'provenance'>, comments: string[]): string {
+  const perBin = result.observable.perBin
   const header = [
     ...result.binColumns.map(c => c.key),
+    ...(perBin ? ['observable'] : []),
     ...result.bands.flatMap(b => ['central', 'plus', 'minus', 'rel_plus_pct', 'rel_minus_pct'].map(h => `${h}[${b.id}]`))
   ]
   const lines = result.bins.map((bin, i) => [
     ...result.binColumns.map(c => bin[c.key] ?? null),
+    ...(perBin ? [perBin[i] ?? null] : []),
     ...result.bands.flatMap(b => bandCells(b, i))
   ])
-  const units = result.binColumns.filter(c => c.unit).map(c => `${c.key} [${c.unit}]`)
-  const comments = [
-    ...provenanceLines(result.provenance, result.observable, 'bands'),
-    `columns: ${[...units, `central/plus/minus [${result.observable.unit ?? 'dimensionless'}]`, 'rel_*_pct [%]'].join(', ')}`,
-    `bands: ${result.bands.map(b => `${b.id} = ${b.label}`).join('; ')}`
-  ]
   return writeCsv([header, ...lines], { comments })
 }
 
@@ -59,6 +74,13 @@ export function bandsToJson(result: ResultForExport) {
     format: 'sheaf-bands',
     formatVersion: 1,
     provenance: provenanceObject(result.provenance),
+    ...bandsJsonBody(result)
+  }
+}
+
+/** Everything of {@link bandsToJson} after the provenance: caution, observable, columns, bins. */
+export function bandsJsonBody(result: Omit<ResultForExport, 'provenance'>) {
+  return {
     caution: RESULT_CAUTION,
     observable: result.observable,
     columns: result.binColumns.map(({ key, label, unit }) => ({ key, label, ...(unit ? { unit } : {}) })),
@@ -66,6 +88,7 @@ export function bandsToJson(result: ResultForExport) {
     bins: result.bins.map((bin, i) => ({
       index: i + 1,
       kinematics: Object.fromEntries(result.binColumns.map(c => [c.key, bin[c.key] ?? null])),
+      ...(result.observable.perBin ? { observable: result.observable.perBin[i] ?? null } : {}),
       values: Object.fromEntries(result.bands.map((b) => {
         const [central, plus, minus, relPlusPercent, relMinusPercent] = bandCells(b, i)
         return [b.id, { central, plus, minus, relPlusPercent, relMinusPercent }]

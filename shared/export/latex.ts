@@ -43,6 +43,13 @@ export function latexText(text: string): string {
     }
     else if (SYMBOLS[ch]) {
       math += `${math && /[a-z}]$/i.test(math) ? ' ' : ''}${SYMBOLS[ch]}`
+      // A subscript right after a symbol belongs to it: μ_F → $\mu_{F}$, not $\mu$\_F.
+      if (chars[i + 1] === '_' && /[a-z0-9]/i.test(chars[i + 2] ?? '')) {
+        let sub = ''
+        i++
+        while (i + 1 < chars.length && /[a-z0-9]/i.test(chars[i + 1]!)) sub += chars[++i]
+        math += `_{${sub}}`
+      }
     }
     else {
       if (math) { out += `$${math}$`; math = '' }
@@ -85,13 +92,125 @@ export interface LatexTableOptions {
   /** \label{…} of the table. */
   label?: string
   rounding?: RoundingOptions
+  /** Tables with more bins than this are written as a `longtable` that breaks across pages; default 30. */
+  longAfter?: number
+}
+
+/** Short heads of the kinematic columns, as math, with the unit apart. */
+const SHORT_HEADS: Record<string, { head: string, unit?: string }> = {
+  x: { head: '$x$' }, xMin: { head: '$x_{\\min}$' }, xMax: { head: '$x_{\\max}$' },
+  q2: { head: '$Q^{2}$', unit: 'GeV$^{2}$' }, q2Min: { head: '$Q^{2}_{\\min}$', unit: 'GeV$^{2}$' }, q2Max: { head: '$Q^{2}_{\\max}$', unit: 'GeV$^{2}$' },
+  y: { head: '$y$' }, yMin: { head: '$y_{\\min}$' }, yMax: { head: '$y_{\\max}$' },
+  m: { head: '$M$', unit: 'GeV' }, mMin: { head: '$M_{\\min}$', unit: 'GeV' }, mMax: { head: '$M_{\\max}$', unit: 'GeV' },
+  label: { head: 'bin' }
+}
+
+/** A kinematic column's head: short, with its unit in brackets on the same line. */
+function columnHead(c: ResultForExport['binColumns'][number]): string {
+  const short = SHORT_HEADS[c.key]
+  if (short) return short.unit ? `${short.head} [${short.unit}]` : short.head
+  return latexText(columnHeader(c))
+}
+
+/** The letter of the i-th band column in the head and its key: (a), (b) … */
+const keyLetter = (i: number) => `(${String.fromCharCode(97 + (i % 26))}${i >= 26 ? Math.floor(i / 26) : ''})`
+
+/** One table of bands, whatever their source (one result, or a study's sets side by side). */
+export interface LatexTableInput {
+  /** `%` comment lines above the table (provenance and caution). */
+  comments: string[]
+  observable: ResultForExport['observable']
+  binColumns: ResultForExport['binColumns']
+  bins: ResultForExport['bins']
+  /** Each band column with the key text that explains it (plain text, escaped here). */
+  columns: Array<{ key: string, band: ResultForExport['bands'][number]['band'] }>
+  /** Caption sentences (LaTeX) after the key; the caution is appended. */
+  caption: string[]
 }
 
 /**
- * A booktabs table (needs \usepackage{booktabs}): one line per bin, the kinematic columns, then
- * the observable with its asymmetric PDF errors for each band. The provenance is a `%` comment
- * block above the table; the caption names the set, prescription, CL and review state and ends
- * with the caution.
+ * A booktabs table (needs \usepackage{booktabs}; a long one also \usepackage{longtable}): one line
+ * per bin, the kinematic columns with short heads and their units, then the observable with its
+ * asymmetric errors per band. The head names the observable and its unit once, over the band
+ * columns; each band column has a short letter explained in the caption's key. Values are rounded
+ * by the Particle Data Group's rule ({@link roundMeasurement}).
+ */
+export function latexTable(input: LatexTableInput, options: Pick<LatexTableOptions, 'label' | 'rounding' | 'longAfter'> = {}): string {
+  const obs = input.observable.latex ? `$${input.observable.latex}$` : latexText(input.observable.name)
+  const unit = input.observable.unit ? ` [${latexText(input.observable.unit)}]` : ''
+  const perBin = input.observable.perBin
+  const kinematic = [...input.binColumns.map(columnHead), ...(perBin ? ['quantity'] : [])]
+  const bandHeads = input.columns.length === 1 ? [''] : input.columns.map((_, i) => keyLetter(i))
+  const width = kinematic.length + input.columns.length
+  const first = kinematic.length + 1
+  const headLines = input.columns.length === 1
+    ? [`${[...kinematic, `${obs}${unit}`].join(' & ')} \\\\`]
+    : [
+        `${kinematic.map(() => '').join(' & ')} & \\multicolumn{${input.columns.length}}{c}{${obs}${unit}} \\\\`,
+        `\\cmidrule(lr){${first}-${width}}`,
+        `${[...kinematic, ...bandHeads].join(' & ')} \\\\`
+      ]
+  const body = input.bins.map((bin, i) => [
+    ...input.binColumns.map(c => latexNumber(bin[c.key])),
+    ...(perBin ? [latexText(perBin[i] ?? '')] : []),
+    ...input.columns.map(({ band }) => latexMeasurement(band.central[i]!, band.plus[i]!, band.minus[i]!, options.rounding))
+  ].join(' & ') + ' \\\\')
+  const key = input.columns.length === 1
+    ? [`${obs}: ${latexText(input.columns[0]!.key)}.`]
+    : [`Columns ${input.columns.map((c, i) => `${keyLetter(i)} ${latexText(c.key)}`).join('; ')}.`]
+  const rounding = 'Values rounded by the Particle Data Group\'s rule (Review of Particle Physics, Introduction).'
+  const caption = [...key, ...input.caption, rounding, latexText(RESULT_CAUTION_SHORT)].join(' ')
+  const spec = `${'c'.repeat(kinematic.length)}${'r'.repeat(input.columns.length)}`
+  const long = input.bins.length > (options.longAfter ?? 30)
+  const label = options.label ? `\\label{${options.label}}` : ''
+  if (long) {
+    return [
+      ...input.comments.map(l => `% ${l}`),
+      '% needs \\usepackage{booktabs} and \\usepackage{longtable}',
+      `\\begin{longtable}{${spec}}`,
+      `  \\caption{${caption}}${label} \\\\`,
+      '  \\toprule',
+      ...headLines.map(l => `  ${l}`),
+      '  \\midrule',
+      '  \\endfirsthead',
+      `  \\multicolumn{${width}}{l}{\\emph{(continued)}} \\\\`,
+      '  \\toprule',
+      ...headLines.map(l => `  ${l}`),
+      '  \\midrule',
+      '  \\endhead',
+      '  \\midrule',
+      `  \\multicolumn{${width}}{r}{\\emph{continued on the next page}} \\\\`,
+      '  \\endfoot',
+      '  \\bottomrule',
+      '  \\endlastfoot',
+      ...body.map(l => `  ${l}`),
+      '\\end{longtable}',
+      ''
+    ].join('\n')
+  }
+  return [
+    ...input.comments.map(l => `% ${l}`),
+    '% needs \\usepackage{booktabs}',
+    '\\begin{table}[htbp]',
+    '  \\centering',
+    `  \\begin{tabular}{${spec}}`,
+    '    \\toprule',
+    ...headLines.map(l => `    ${l}`),
+    '    \\midrule',
+    ...body.map(l => `    ${l}`),
+    '    \\bottomrule',
+    '  \\end{tabular}',
+    `  \\caption{${caption}}`,
+    ...(label ? [`  ${label}`] : []),
+    '\\end{table}',
+    ''
+  ].join('\n')
+}
+
+/**
+ * One result's bands as a LaTeX table ({@link latexTable}): the provenance is a `%` comment block
+ * above the table; the caption names the set, prescription, CL and review state and ends with
+ * the caution.
  */
 export function bandsToLatex(result: ResultForExport, options: LatexTableOptions = {}): string {
   checkResult(result)
@@ -103,38 +222,16 @@ export function bandsToLatex(result: ResultForExport, options: LatexTableOptions
       })
     : result.bands
   const p = result.provenance
-  const obs = result.observable.latex ? `$${result.observable.latex}$` : latexText(result.observable.name)
-  const unit = result.observable.unit ? ` [${latexText(result.observable.unit)}]` : ''
-  const head = [
-    ...result.binColumns.map(c => latexText(columnHeader(c))),
-    ...bands.map(b => (bands.length === 1 ? `${obs}${unit}` : `${obs}${unit}, ${latexText(b.label)}`))
-  ]
-  const body = result.bins.map((bin, i) => [
-    ...result.binColumns.map(c => latexNumber(bin[c.key])),
-    ...bands.map(({ band }) => latexMeasurement(band.central[i]!, band.plus[i]!, band.minus[i]!, options.rounding))
-  ])
-  const prescriptions = bands.length === 1 ? latexText(p.prescription) : bands.map(b => latexText(b.label)).join(', ')
-  const caption = [
-    options.caption ?? `${obs} with its PDF uncertainty.`,
-    `PDF set ${latexText(setText(p))}; ${prescriptions}; ${latexText(confidenceText(p))}.`,
-    `Result version ${p.resultVersion}, ${latexText(approvalText(p))}.`,
-    latexText(RESULT_CAUTION_SHORT)
-  ].join(' ')
-  return [
-    ...provenanceLines(p, result.observable, 'LaTeX table of bands').map(l => `% ${l}`),
-    '% needs \\usepackage{booktabs}',
-    '\\begin{table}[htbp]',
-    '  \\centering',
-    `  \\begin{tabular}{${'c'.repeat(head.length)}}`,
-    '    \\toprule',
-    `    ${head.join(' & ')} \\\\`,
-    '    \\midrule',
-    ...body.map(cells => `    ${cells.join(' & ')} \\\\`),
-    '    \\bottomrule',
-    '  \\end{tabular}',
-    `  \\caption{${caption}}`,
-    ...(options.label ? [`  \\label{${options.label}}`] : []),
-    '\\end{table}',
-    ''
-  ].join('\n')
+  return latexTable({
+    comments: provenanceLines(p, result.observable, 'LaTeX table of bands'),
+    observable: result.observable,
+    binColumns: result.binColumns,
+    bins: result.bins,
+    columns: bands.map(b => ({ key: b.label, band: b.band })),
+    caption: [
+      ...(options.caption ? [options.caption] : []),
+      `PDF set ${latexText(setText(p))}; ${latexText(confidenceText(p))}.`,
+      `Result version ${p.resultVersion}, ${latexText(approvalText(p))}.`
+    ]
+  }, options)
 }

@@ -86,8 +86,11 @@ export interface RoundedMeasurement {
 }
 
 export interface RoundingOptions {
-  /** Significant digits of the errors; default 2 (common practice). */
-  errorDigits?: number
+  /**
+   * How many significant digits an error keeps: 'pdg' (default) by the Particle Data Group's
+   * rule ({@link pdgErrorDecimals}), or a fixed number.
+   */
+  errorDigits?: 'pdg' | number
   /** Significant digits of the central value when both errors are zero; default 4. */
   bareDigits?: number
   /** A power of ten is factored out when |central| < 10^low or ≥ 10^high; default [-3, 5]. */
@@ -95,14 +98,36 @@ export interface RoundingOptions {
 }
 
 /**
- * Rounds a result for a table (common practice): each error to 2 significant digits, the central
- * value to the finer of the two errors' last decimal places, a common power of ten factored out
- * when the central value is very small or large. Errors are magnitudes (≥ 0).
+ * The decimal place an error is rounded to by the Particle Data Group's rule (Review of Particle
+ * Physics, Introduction, the section on rounding; the rule as recalled here is from memory): the
+ * three highest-order digits of the error decide — 100 to 354: two significant digits; 355 to
+ * 949: one; 950 to 999: round the error up to 1000 and keep two significant digits.
+ * Returns the number of decimals (negative for tens, hundreds …).
  *
- * @example roundMeasurement(1.23456, 0.01234, 0.0156) // → { central: '1.235', plus: '0.012', minus: '0.016', exponent: 0, symmetric: false }
+ * @example pdgErrorDecimals(0.119) // 2 (→ 0.12)
+ * @example pdgErrorDecimals(0.367) // 1 (→ 0.4)
+ * @example pdgErrorDecimals(0.980) // 1 (→ 1.0)
+ */
+export function pdgErrorDecimals(error: number): number {
+  if (!Number.isFinite(error) || error <= 0) throw new RangeError(`The rounding rule needs a positive error, got ${error}`)
+  const { digits, exponent } = decimalParts(error)
+  const lead = Number(digits.slice(0, 3))
+  if (lead <= 354) return 1 - exponent
+  if (lead <= 949) return -exponent
+  return -exponent // 950–999 → 1000 (one order up) with two significant digits: the same decimal place
+}
+
+/**
+ * Rounds a result for a table. By default the Particle Data Group's rule ({@link pdgErrorDecimals})
+ * decides the decimal place from the smaller non-zero error, and the value and both errors are
+ * rounded to that one place, so an asymmetric result reads evenly (`17.0^{+1.2}_{-1.0}`, never
+ * `16.95^{+1.2}_{-0.97}`; one place for both errors is common practice). A common power of ten is
+ * factored out when the central value is very small or large. Errors are magnitudes (≥ 0).
+ *
+ * @example roundMeasurement(0.827, 0.119, 0.119) // → { central: '0.83', plus: '0.12', minus: '0.12', … }
  */
 export function roundMeasurement(central: number, plus: number, minus: number, options: RoundingOptions = {}): RoundedMeasurement {
-  const errorDigits = options.errorDigits ?? 2
+  const errorDigits = options.errorDigits ?? 'pdg'
   const [low, high] = options.plainRange ?? [-3, 5]
   for (const [name, v] of [['central value', central], ['upper error', plus], ['lower error', minus]] as const) {
     if (!Number.isFinite(v)) throw new RangeError(`Cannot print a result whose ${name} is ${v}`)
@@ -119,8 +144,11 @@ export function roundMeasurement(central: number, plus: number, minus: number, o
     const text = c === 0 ? '0' : roundSignificant(c, options.bareDigits ?? 4).text
     return { central: text, plus: '0', minus: '0', exponent, symmetric: true }
   }
-  const decimals = Math.max(...nonZero.map(v => roundSignificant(v, errorDigits).decimals))
-  const plusText = p > 0 ? roundSignificant(p, errorDigits).text : roundDecimal(0, decimals)
-  const minusText = m > 0 ? roundSignificant(m, errorDigits).text : roundDecimal(0, decimals)
+  const decimals = errorDigits === 'pdg'
+    ? pdgErrorDecimals(Math.min(...nonZero))
+    : Math.max(...nonZero.map(v => roundSignificant(v, errorDigits).decimals))
+  const text = (v: number) => (errorDigits === 'pdg' || v === 0 ? roundDecimal(v, decimals) : roundSignificant(v, errorDigits).text)
+  const plusText = text(p)
+  const minusText = text(m)
   return { central: roundDecimal(c, decimals), plus: plusText, minus: minusText, exponent, symmetric: plusText === minusText }
 }

@@ -37,6 +37,8 @@ export interface ExportObservable {
   unit?: string
   /** The name as LaTeX math, without dollars ("\\mathrm{d}\\sigma/\\mathrm{d}M"); else `name` is escaped. */
   latex?: string
+  /** Each bin's name, when the bins give different names in the same unit ("dσ/dx" beside "σ"). */
+  perBin?: string[]
 }
 
 /**

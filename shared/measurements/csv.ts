@@ -12,16 +12,18 @@
  * Lines starting with # are comments; lines whose fields are all blank are skipped. At least
  * one of stat, syst or a shift column is needed, and every point needs a non-zero error.
  * The optional correlation matrix is N × N (N points): CSV without a header, or a JSON array of
- * rows. It applies to the syst column (`correlationOf: 'syst'`) or to the total error
- * √(stat² + syst²) (`'total'`, the usual form of published matrices). It must be symmetric with
+ * rows. The uploader says which errors it applies to: the stat column (`correlationOf: 'stat'`),
+ * the syst column (`'syst'`) or the total error √(stat² + syst²) (`'total'`), and how the syst
+ * column combines when the matrix is not of syst (`systCombination`: uncorrelated or fully
+ * correlated between points); engine-measurement.ts builds the covariance. It must be symmetric with
  * a unit diagonal and positive definite (a fully correlated source belongs in a shift column).
  */
 import { CholeskyDecomposition, Matrix } from 'ml-matrix'
 import { readCsv, type CsvProblem } from '../bins/csv'
 import type { LocatedIssue, MeasurementData } from './types'
 
-export type { LocatedIssue, MeasurementData } from './types'
-export { engineMeasurement } from './engine-measurement'
+export type { CorrelationOf, LocatedIssue, MeasurementData, SystCombination } from './types'
+export { engineMeasurement, measurementCovariance, measurementTreatment } from './engine-measurement'
 
 /** Decimal number as people write it: optional sign, digits with an optional point, optional exponent. */
 const NUMBER = /^[+-]?(\d+\.?\d*|\.\d+)([eE][+-]?\d+)?$/
@@ -42,7 +44,7 @@ const syntaxIssue = (p: CsvProblem, file: LocatedIssue['file']): LocatedIssue =>
 
 const isBlank = (fields: readonly string[]) => fields.every(f => f.trim() === '')
 
-type Points = Omit<MeasurementData, 'correlation' | 'correlationOf'>
+type Points = Omit<MeasurementData, 'correlation' | 'correlationOf' | 'systCombination'>
 
 /** Column names compared loosely: case and spaces around the name (and after `shift:`) do not matter. */
 function columnKey(field: string): string {

@@ -154,7 +154,10 @@ export const measurementJsonSchema = z.object({
   csv: storableString({ error: 'Give the points as CSV text' }).min(1, 'The CSV is empty'),
   /** Optional N × N correlation matrix: CSV text, JSON text, or an array of rows. */
   correlation: z.union([storableString(), z.array(z.array(z.number({ error: 'Each correlation is a finite number' })))], { error: 'The correlation matrix is CSV or JSON text, or an array of rows of numbers' }).optional(),
-  correlationOf: z.enum(['syst', 'total']).default('total')
+  /** Which errors the correlation matrix applies to; required with a matrix. */
+  correlationOf: z.enum(['stat', 'syst', 'total'], { error: 'correlationOf is one of stat, syst, total' }).optional(),
+  /** How the syst column combines between points when the matrix is not of syst. */
+  systCombination: z.enum(['uncorrelated', 'fully-correlated'], { error: 'systCombination is uncorrelated or fully-correlated' }).optional()
 }).strict()
 
 export const chi2QuerySchema = z.object({

@@ -249,6 +249,26 @@ describe('demo seed', () => {
       // Adding the PDF covariance can only lower χ² (a larger covariance).
       expect(s.withPdf.chi2).toBeLessThanOrEqual(s.experimental.chi2 + 1e-9)
     }
+    // The same files uploaded as the form sends them, saying the matrix is of the systematic
+    // errors, give the seeded measurement's χ² on every set; read as a matrix of the total errors
+    // (what the form used to assume) they give another χ².
+    const analyst = new ApiClient()
+    await analyst.signIn(DEMO_USERS[1]!.email, DEMO_USERS[1]!.password)
+    const url = `/api/workspaces/${workspaceId}/studies/${dy.id}/measurements`
+    const files = { csv: sample('measurements/drell-yan-high-mass-pseudodata.csv'), correlation: sample('measurements/drell-yan-high-mass-correlation.csv') }
+    const syst = await analyst.post(url, { name: 'uploaded, syst', ...files, correlationOf: 'syst', systCombination: 'uncorrelated' })
+    expect(syst.status, JSON.stringify(syst.body)).toBe(201)
+    const total = await analyst.post(url, { name: 'uploaded, total', ...files, correlationOf: 'total' })
+    expect(total.status).toBe(201)
+    const bySet = async (id: string) => new Map(((await viewer.get(`${url}/${id}/chi2`)).body.sets as Array<{ setId: string, experimental: { chi2: number } }>).map(s => [s.setId, s.experimental.chi2]))
+    const seeded = new Map((chi2.body.sets as Array<{ setId: string, experimental: { chi2: number } }>).map(s => [s.setId, s.experimental.chi2]))
+    const viaForm = await bySet(syst.body.id)
+    const asTotal = await bySet(total.body.id)
+    for (const [setId, value] of seeded) {
+      expect(close(viaForm.get(setId)!, value, 1e-9)).toBe(true)
+      expect(close(asTotal.get(setId)!, value, 0.05)).toBe(false)
+    }
+    for (const id of [syst.body.id, total.body.id]) expect((await analyst.delete(`${url}/${id}`)).status).toBe(200)
     const states = await db.select({ state: t.results.reviewState, studyId: t.results.studyId }).from(t.results)
       .innerJoin(t.studies, eq(t.studies.id, t.results.studyId)).where(eq(t.studies.workspaceId, workspaceId))
     expect(states.filter(s => s.state === 'submitted').length).toBeGreaterThanOrEqual(1)

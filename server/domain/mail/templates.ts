@@ -83,19 +83,26 @@ export interface ReviewFacts {
   actorName: string
   studyName: string
   setName: string
+  /** The set's own version ("1.2"), beside its name. */
+  setVersion?: string
+  /** The result's version number in the study. */
   version: number
   comment: string
   link: string
 }
 
-/** The mail sent on each review step (to the owners on submit, to the submitter on a decision). */
+/**
+ * The mail sent on each review step (to the owners on submit, to the submitter on a decision):
+ * subject and text name the study, the set with its version, and the result version.
+ */
 export function reviewStepMail(f: ReviewFacts): MailContent {
-  const what = `"${f.studyName}" on ${f.setName}, version ${f.version}`
+  const set = `set ${f.setName}${f.setVersion ? ` ${f.setVersion}` : ''}`
+  const what = `study "${f.studyName}" on ${set}, result version ${f.version}`
   const line = {
     submitted: `${f.actorName} submitted ${what} for sign-off.`,
     approved: `${f.actorName} approved ${what}. This version is now frozen.`,
     returned: `${f.actorName} returned ${what} for changes.`
   }[f.action]
   const lines = f.comment ? [line, `Comment: ${f.comment}`] : [line]
-  return compose(`Sheaf: result ${f.studyName} v${f.version} ${f.action}`, 'Hello,', lines, f.link, 'Open the result')
+  return compose(`Sheaf: ${f.studyName} on ${set}, result v${f.version} ${f.action}`, 'Hello,', lines, f.link, 'Open the result')
 }

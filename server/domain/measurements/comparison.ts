@@ -77,10 +77,15 @@ export function combineSets(sets: ComparedSet[], study: Study, clPercent: number
   }
 }
 
-/** χ² of a measurement against each set, with and without the PDF covariance. */
-export function chiSquares(sets: ComparedSet[], measurement: Parameters<typeof compareWithSet>[0]) {
+/**
+ * χ² of a measurement against each set, with and without the PDF covariance, and each set's band
+ * (the study's prescription for its kind, at `clPercent`) for drawing the data over it.
+ */
+export function chiSquares(sets: ComparedSet[], measurement: Parameters<typeof compareWithSet>[0], study?: Study, clPercent = 68) {
   return sets.map((s) => {
-    const base = { setId: s.result.setId, resultId: s.result.id, version: s.result.version, name: s.name }
+    const prescription = resolvePrescription(s.header.kind, study?.prescription ?? 'auto')
+    const band = bandToJson(bandsFromValues(s.matrix, memberSourceOf(s.header), prescription, clPercent))
+    const base = { setId: s.result.setId, resultId: s.result.id, version: s.result.version, name: s.name, prescription, band }
     try {
       const c = compareWithSet(measurement, s.matrix, { kind: s.header.kind, clFrom: s.header.confidenceLevelPercent, alphasMembers: s.header.alphasMembers })
       const pick = (r: typeof c.withPdf) => ({ chi2: r.chi2, points: r.points, chi2PerPoint: r.chi2PerPoint, degreesOfFreedom: r.degreesOfFreedom, pValue: r.pValue })

@@ -7,11 +7,15 @@ import type { ExportObservable, ExportProvenance, LabelledBand, ResultForExport 
 import { bandToJson, makeBands } from '../../../shared/physics/uncertainty/band'
 import * as C from '../../../shared/physics/constants'
 import { kernelDefinition } from '../../../shared/physics/kernels/registry'
-import { BIN_COLUMNS, resultUnit, type StudySpec } from '../../../shared/physics/study/spec'
+import { BIN_COLUMNS, type StudySpec } from '../../../shared/physics/study/spec'
 import type { SetHeader } from '../../../shared/physics/types'
 import type { Prescription } from '../../../shared/physics/uncertainty/bands'
 import { PRESCRIPTION_LABELS } from '../../../shared/utils/prescriptions'
-import { userNames } from './results'
+import { studyObservable } from '../../../shared/bins/observable'
+import type { StudyForExport } from '../../../shared/export/study'
+import { fail } from '../errors'
+import { latestDoneResults } from '../studies/studies'
+import { reportingChoice, resultBands, resultSetHeader, userNames } from './results'
 
 const COLUMN_LABELS: Record<string, { label: string, unit?: string }> = {
   x: { label: 'x' }, xMin: { label: 'x min' }, xMax: { label: 'x max' },
@@ -46,11 +50,10 @@ function kernelConstants(spec: StudySpec): Record<string, number | string | bool
   return out
 }
 
+/** The observable of every export: named and given its unit from the bin layout (shared/bins/observable.ts). */
 export function exportObservable(spec: StudySpec): ExportObservable {
-  const def = kernelDefinition(spec.kernel)
-  const name = def.composite ? def.title : def.quantity
-  const unit = resultUnit(spec)
-  return { name, ...(unit !== '1' ? { unit } : {}) }
+  const { name, latex, unit, perBin } = studyObservable(spec)
+  return { name, ...(unit ? { unit } : {}), ...(latex ? { latex } : {}), ...(perBin ? { perBin } : {}) }
 }
 
 /** The provenance block of every export of result `r`. */
@@ -98,5 +101,41 @@ export function resultForExport(
     binColumns: exportColumns(spec),
     bins: spec.bins.map(b => ({ ...b }) as GridRow),
     bands: exportBands
+  }
+}
+
+/**
+ * A study's newest finished result on each of its sets, side by side (shared/export/study.ts),
+ * each at the study's prescription for its kind and at `clPercent` (default the study's CL as
+ * run). 409 when none has finished or when they ran on different bins.
+ */
+export async function studyForExport(db: DB, study: Study, query: { cl?: number }, exportedBy: string): Promise<StudyForExport> {
+  const results = await latestDoneResults(db, study.id, study.setIds)
+  if (!results.length) fail(409, 'No finished results to export yet; run the study first')
+  if (new Set(results.map(r => JSON.stringify(r.specSnapshot.spec.bins))).size > 1) {
+    fail(409, 'The newest results were computed on different bins (the study was edited between runs); run the study again on every set')
+  }
+  const ids = new Set<string>()
+  const sets = await Promise.all(results.map(async (r) => {
+    const header = await resultSetHeader(db, r)
+    const { prescription, clPercent } = reportingChoice(r, header, { cl: query.cl })
+    const band = await resultBands(db, r, header, prescription, clPercent)
+    const provenance = await exportProvenance(db, r, study, header, prescription, clPercent, exportedBy)
+    return { r, provenance, band }
+  }))
+  const spec = results[0]!.specSnapshot.spec
+  return {
+    study: { id: study.id, name: study.name },
+    observable: exportObservable(spec),
+    binColumns: exportColumns(spec),
+    bins: spec.bins.map(b => ({ ...b }) as GridRow),
+    sets: sets.map(({ r, provenance, band }) => {
+      let id = `${r.specSnapshot.set.name}-${r.specSnapshot.set.version}`.replace(/[^\w.-]+/g, '_')
+      while (ids.has(id)) id += '_'
+      ids.add(id)
+      return { id, provenance, band }
+    }),
+    exportedBy,
+    exportedAt: new Date()
   }
 }

@@ -62,7 +62,7 @@ async function mailReviewStep(db: DB, settings: Settings, r: Result, workspaceId
   }
   const snap = r.specSnapshot
   const content = reviewStepMail({
-    action, actorName: actor.name, studyName: snap.studyName, setName: snap.set.name, version: r.version, comment,
+    action, actorName: actor.name, studyName: snap.studyName, setName: snap.set.name, setVersion: snap.set.version, version: r.version, comment,
     link: appLink(settings, studyPagePath(r.studyId, r.id))
   })
   for (const to of new Set(recipients.filter(e => e !== actor.email))) {

@@ -8,6 +8,7 @@ import { buildUserKernel, type UserKernelOptions } from '../../../shared/physics
 import { checkReach, type StudyAxes } from '../../../shared/physics/study/expand'
 import { checkStudySpec, type StudyIssue, type StudySpec } from '../../../shared/physics/study/spec'
 import type { SetHeader } from '../../../shared/physics/types'
+import { observableIssues } from '../../../shared/bins/observable'
 import { DomainError } from '../errors'
 import { formatCount, LIMITS, type Limits } from '../limits'
 
@@ -61,6 +62,9 @@ export function kernelContextOf(header: SetHeader): KernelContext {
 export function checkSpec(input: unknown): { spec: StudySpec, issues: [] } | { spec: null, issues: StudyIssue[] } {
   const r = checkStudySpec(input)
   if (!r.ok) return { spec: null, issues: r.issues }
+  // One observable per study: bins that change its name or unit are refused, located.
+  const mixed = observableIssues(r.spec)
+  if (mixed.length) return { spec: null, issues: mixed }
   const kernelIssue = r.spec.kernel === 'user' ? userKernelIssue(r.spec.options as UserKernelOptions) : null
   return kernelIssue ? { spec: null, issues: [kernelIssue] } : { spec: r.spec, issues: [] }
 }

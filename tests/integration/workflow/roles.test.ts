@@ -48,6 +48,7 @@ const routes: WorkspaceRoute[] = [
   { method: 'GET', path: w => `${set(w)}/densities?q2=10&flavours=21,uv`, minRole: 'viewer' },
   { method: 'GET', path: w => `${set(w)}/sum-rules?q2=10`, minRole: 'viewer' },
   { method: 'POST', path: w => `${base(w)}/sets/builds`, body: () => ({ input: {} }), minRole: 'analyst', tryAllowed: false },
+  { method: 'POST', path: w => `${base(w)}/sets/examples`, minRole: 'analyst', tryAllowed: false },
   { method: 'GET', path: w => `${base(w)}/studies`, minRole: 'viewer' },
   { method: 'POST', path: w => `${base(w)}/studies`, body: () => ({ name: 'another', spec: f2Spec(2), setIds: [ids.set] }), minRole: 'analyst' },
   { method: 'POST', path: w => `${base(w)}/studies/validate`, body: () => ({ spec: f2Spec(2), setIds: [ids.set] }), minRole: 'viewer' },
@@ -56,6 +57,7 @@ const routes: WorkspaceRoute[] = [
   { method: 'DELETE', path: study, minRole: 'owner', tryAllowed: false },
   { method: 'POST', path: w => `${study(w)}/run`, minRole: 'analyst', tryAllowed: false },
   { method: 'GET', path: w => `${study(w)}/comparison`, minRole: 'viewer' },
+  { method: 'GET', path: w => `${study(w)}/export?format=latex`, minRole: 'viewer' },
   { method: 'GET', path: w => `${study(w)}/measurements`, minRole: 'viewer' },
   { method: 'POST', path: w => `${study(w)}/measurements`, body: () => ({ name: 'more data', csv: csv(3) }), minRole: 'analyst' },
   { method: 'GET', path: measurement, minRole: 'viewer' },
@@ -84,7 +86,7 @@ describe('workflow role matrix', () => {
     const mine = base(ws)
     const paths = [
       `${mine}/sets/${otherIds.set}`, `${mine}/sets/${otherIds.set}/file`,
-      `${mine}/studies/${otherIds.study}`, `${mine}/studies/${otherIds.study}/comparison`,
+      `${mine}/studies/${otherIds.study}`, `${mine}/studies/${otherIds.study}/comparison`, `${mine}/studies/${otherIds.study}/export?format=csv`,
       `${mine}/studies/${otherIds.study}/measurements/${otherIds.measurement}`,
       `${mine}/studies/${ids.study}/measurements/${otherIds.measurement}`,
       `${mine}/results/${otherIds.result}`, `${mine}/results/${otherIds.result}/export?format=json`

@@ -329,7 +329,9 @@ describe('review', () => {
     const submit = await ws.analyst.client.post(`${url}/submit`, { comment: 'ready' })
     expect(submit.body.reviewState).toBe('submitted')
     const ownerMail = await waitForMail(ws.owner.email, /submitted/, since)
-    expect(ownerMail.textBody).toContain(`${ws.analyst.name} submitted "Review me"`)
+    // The mail names the study, the set with its version, and the result version.
+    expect(ownerMail.textBody).toMatch(new RegExp(`${ws.analyst.name} submitted study "Review me" on set study-h \\S+, result version 1 for sign-off`))
+    expect(ownerMail.subject).toMatch(/^Sheaf: Review me on set study-h \S+, result v1 submitted$/)
     expect((await ws.analyst.client.post(`${url}/submit`, {})).status).toBe(409)
     expect((await ws.analyst.client.post(`${url}/approve`, {})).status).toBe(403)
     const noComment = await ws.owner.client.post(`${url}/return`, {})
@@ -424,6 +426,16 @@ describe('comparison and measurements', () => {
     const corr = await ws.analyst.client.post(url, { name: 'corr', csv: 'value,stat,syst\n1,1,1\n1,1,1\n1,1,1\n1,1,1', correlation: '1,0,0,0\n0,1,0,0\n0,0,1,2\n0,0,0,1' })
     expect(corr.status).toBe(400)
     expect(corr.body.data.issues[0]).toMatchObject({ file: 'correlation', line: 3, column: 4 })
+    // A matrix must say which errors it applies to; the choice is stored and shown.
+    const identity = '1,0,0,0\n0,1,0,0\n0,0,1,0\n0,0,0,1'
+    const unsaid = await ws.analyst.client.post(url, { name: 'which', csv: 'value,stat,syst\n1,1,1\n1,1,1\n1,1,1\n1,1,1', correlation: identity })
+    expect(unsaid.status).toBe(400)
+    expect(unsaid.body.statusMessage).toMatch(/field correlationOf: Say which errors the correlation matrix applies to: stat, syst or total/)
+    const said = await ws.analyst.client.post(url, { name: 'said', csv: 'value,stat,syst\n1,1,1\n1,1,1\n1,1,1\n1,1,1', correlation: identity, correlationOf: 'syst' })
+    expect(said.status).toBe(201)
+    expect(said.body).toMatchObject({ correlationOf: 'syst', treatment: ['The correlation matrix applies to the systematic errors.', 'Statistical errors are uncorrelated between points.'] })
+    expect((await ws.viewer.client.get(`${url}/${said.body.id}`)).body).toMatchObject({ correlationOf: 'syst', data: { correlationOf: 'syst', systCombination: 'uncorrelated' } })
+    expect((await ws.analyst.client.delete(`${url}/${said.body.id}`)).status).toBe(200)
 
     const compare = (await ws.viewer.client.get(`${api()}/studies/${studyId}/comparison`)).body
     const central = compare.sets[0].band.central as number[]
@@ -438,6 +450,9 @@ describe('comparison and measurements', () => {
     // χ² = Σ (1σ)²/σ² = 4 for four uncorrelated points each one σ off (PDG review "Statistics").
     expect(h.experimental.chi2).toBeCloseTo(4, 6)
     expect(h.points).toBe(4)
+    // The data with its errors and each set's band, for the plot and the pulls.
+    expect(chi2.body.data.errors).toEqual([0.01, 0.01, 0.01, 0.01].map(e => expect.closeTo(e, 12)))
+    expect(h.band.central).toHaveLength(4)
     // Adding the PDF covariance can only lower χ² (a positive semi-definite term in the inverse).
     expect(h.withPdf.chi2).toBeLessThan(h.experimental.chi2)
     const list = await ws.viewer.client.get(url)

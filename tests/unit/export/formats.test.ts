@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { readCsv } from '#shared/bins'
 import { RESULT_CAUTION, bandsToCsv, bandsToJson, bandsToLatex, latexMeasurement, latexNumber, latexText, matrixToCsv } from '#shared/export'
+import { makeBands } from '#shared/physics/uncertainty/band'
 import { handMadeResult } from './result'
 
 describe('bandsToCsv', () => {
@@ -47,7 +48,8 @@ describe('bandsToJson', () => {
 describe('LaTeX', () => {
   it.each([
     [1.23456, 0.01234, 0.0156, '$1.235^{+0.012}_{-0.016}$'],
-    [0.0996123, 0.00996, 0.0031, '$0.0996^{+0.010}_{-0.0031}$'],
+    [0.0996123, 0.00996, 0.0031, '$0.0996^{+0.0100}_{-0.0031}$'], // one decimal place for both errors
+    [16.95, 1.04, 0.97, '$17.0 \\pm 1.0$'], // was the uneven 16.95^{+1.0}_{-0.97}
     [1.234e-5, 2.1e-7, 1.9e-7, '$(1.234^{+0.021}_{-0.019})\\times 10^{-5}$'],
     [1.23456, 0.014, 0.014, '$1.235 \\pm 0.014$'],
     [3.14159, 0, 0, '$3.142$']
@@ -71,17 +73,47 @@ describe('LaTeX', () => {
     const lines = tex.split('\n')
     expect(lines[0]).toBe('% Sheaf export: LaTeX table of bands')
     expect(lines).toContain('% run by: ana@example.org at 2025-03-01T09:30:00.000Z')
-    expect(lines).toContain('  \\begin{tabular}{cccc}')
-    expect(lines).toContain('    M min [GeV] & M max [GeV] & note & $\\mathrm{d}\\sigma/\\mathrm{d}M$ [pb/GeV] \\\\')
+    expect(lines).toContain('  \\begin{tabular}{cccr}')
+    expect(lines).toContain('    $M_{\\min}$ [GeV] & $M_{\\max}$ [GeV] & note & $\\mathrm{d}\\sigma/\\mathrm{d}M$ [pb/GeV] \\\\')
     expect(lines).toContain('    200 & 300 & low, "edge" & $1.235^{+0.012}_{-0.016}$ \\\\')
     expect(lines).toContain('    500 & 10000 & -- & $(1.234^{+0.021}_{-0.019})\\times 10^{-5}$ \\\\')
     expect(tex).toContain('\\toprule')
     expect(tex).toContain('\\bottomrule')
     const caption = lines.find(l => l.startsWith('  \\caption{'))!
-    expect(caption).toContain('PDF set Bramble-H version 1.2 (hessian-pairs, family Bramble); Hessian pairs, asymmetric; 68\\% CL (set published at 90\\% CL, rescaled).')
+    expect(caption).toContain('$\\mathrm{d}\\sigma/\\mathrm{d}M$: Hessian, asymmetric.')
+    expect(caption).toContain('PDF set Bramble-H version 1.2 (hessian-pairs, family Bramble); 68\\% CL (set published at 90\\% CL, rescaled).')
     expect(caption).toContain('Result version 3, approved by owner@example.org')
     expect(caption).toContain('PDF uncertainty only, not the full theory uncertainty.')
     expect(lines).toContain('  \\label{tab:dy}')
+  })
+
+  it('keeps column heads short: one head over the bands, a letter per band explained in the caption', () => {
+    const tex = bandsToLatex(handMadeResult())
+    const lines = tex.split('\n')
+    expect(lines).toContain('     &  &  & \\multicolumn{2}{c}{$\\mathrm{d}\\sigma/\\mathrm{d}M$ [pb/GeV]} \\\\')
+    expect(lines).toContain('    $M_{\\min}$ [GeV] & $M_{\\max}$ [GeV] & note & (a) & (b) \\\\')
+    expect(tex).toContain('Columns (a) Hessian, asymmetric; (b) Hessian, symmetric.')
+    const head = lines.filter(l => l.includes('\\\\') && !l.includes('$1.') && !l.includes('$0.') && !l.includes('10^{-5}'))
+    for (const l of head) expect(l.replace(/\$[^$]*\$/g, 'X').length).toBeLessThan(60)
+  })
+
+  it('writes a long table as a longtable that repeats its head on every page', () => {
+    const r = handMadeResult()
+    const n = 200
+    r.bins = Array.from({ length: n }, (_, i) => ({ mMin: 100 + i, mMax: 101 + i, note: null }))
+    r.bands = r.bands.map(b => ({ ...b, band: makeBands(Array(n).fill(2), Array(n).fill(0.1), Array(n).fill(0.1)) }))
+    const tex = bandsToLatex(r)
+    expect(tex).toContain('\\begin{longtable}{cccrr}')
+    expect(tex).toContain('\\endhead')
+    expect(tex).not.toContain('\\begin{table}')
+    expect(tex).toContain('% needs \\usepackage{booktabs} and \\usepackage{longtable}')
+    expect(tex).toContain('% caution: ')
+    expect(tex.split('\n').filter(l => l.includes('$2.00 \\pm 0.10$'))).toHaveLength(n)
+  })
+
+  it('writes μ_F as one math subscript', () => {
+    expect(latexText('μ_F/μ = 0.5, 1, 2')).toBe('$\\mu_{F}$/$\\mu$ = 0.5, 1, 2')
+    expect(latexText('a_b')).toBe('a\\_b')
   })
 
   it('marks a draft as not reviewed and refuses an unknown band', () => {

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { roundDecimal, roundMeasurement, roundSignificant } from '#shared/export'
+import { pdgErrorDecimals, roundDecimal, roundMeasurement, roundSignificant } from '#shared/export'
 
 // Rounding rule (common practice): errors to 2 significant digits, the central value to the
 // same decimal place, ties half away from zero on the decimal form.
@@ -35,11 +35,39 @@ describe('roundMeasurement', () => {
     [123456, 1234, 1234, '1.235', '0.012', '0.012', 5],
     [-0.5, 0.0123, 0.0123, '-0.500', '0.012', '0.012', 0],
     [1.5, 0, 0.0123, '1.500', '0.000', '0.012', 0]
-  ])('%d +%d −%d', (c, p, m, central, plus, minus, exponent) => {
-    expect(roundMeasurement(c, p, m)).toMatchObject({ central, plus, minus, exponent })
+  ])('%d +%d −%d, two significant digits on request', (c, p, m, central, plus, minus, exponent) => {
+    expect(roundMeasurement(c, p, m, { errorDigits: 2 })).toMatchObject({ central, plus, minus, exponent })
+  })
+
+  // The Particle Data Group's rounding rule, Review of Particle Physics, Introduction, section on
+  // rounding: the three highest-order digits of the error decide (100–354: two significant
+  // digits, 355–949: one, 950–999: round up to 1000 and keep two), the value is rounded to match.
+  // The first two examples are the ones printed there (from memory); the others apply the rule.
+  it.each([
+    [0.827, 0.119, '0.83', '0.12'], // published example (from memory)
+    [0.827, 0.367, '0.8', '0.4'], // published example (from memory)
+    [0.827, 0.980, '0.8', '1.0'], // 980 → 1000, two digits
+    [0.827, 0.354, '0.83', '0.35'], // edge of the two-digit range
+    [0.827, 0.355, '0.8', '0.4'], // edge of the one-digit range
+    [0.827, 0.949, '0.8', '0.9'],
+    [0.827, 0.950, '0.8', '1.0'],
+    [1234.5, 23.4, '1235', '23'],
+    [1234.5, 56, '1230', '60']
+  ])('by the PDG rule: %d ± %d → %s ± %s', (c, e, central, error) => {
+    expect(roundMeasurement(c, e, e)).toMatchObject({ central, plus: error, minus: error, symmetric: true })
+  })
+  it('rounds asymmetric errors to one decimal place, set by the smaller error', () => {
+    // The uneven 16.95^{+1.0}_{-0.97} of the old rounding: 0.97 → 970 → 1.0 (one decimal), so all at one decimal.
+    expect(roundMeasurement(16.95, 1.04, 0.97)).toMatchObject({ central: '17.0', plus: '1.0', minus: '1.0' })
+    expect(roundMeasurement(16.95, 1.24, 0.31)).toMatchObject({ central: '16.95', plus: '1.24', minus: '0.31', symmetric: false })
+    expect(roundMeasurement(2.5, 0.0996, 0.098)).toMatchObject({ central: '2.50', plus: '0.10', minus: '0.10' })
   })
   it('prints a value without errors to 4 significant digits', () => {
     expect(roundMeasurement(3.14159, 0, 0)).toEqual({ central: '3.142', plus: '0', minus: '0', exponent: 0, symmetric: true })
+  })
+  it('gives the decimal place of the PDG rule', () => {
+    expect([pdgErrorDecimals(0.119), pdgErrorDecimals(0.367), pdgErrorDecimals(0.98), pdgErrorDecimals(23.4), pdgErrorDecimals(560)]).toEqual([2, 1, 1, 0, -2])
+    expect(() => pdgErrorDecimals(0)).toThrow(RangeError)
   })
   it('refuses negative or non-finite errors', () => {
     expect(() => roundMeasurement(1, -0.1, 0.1)).toThrow(/magnitudes/)
