@@ -578,7 +578,7 @@ export function paperFigure(figure: Figure, s: FigureExportSettings, provenance?
     axis.tickfont = { size: Math.max(5, f - 1) }
     layout[key] = axis
   }
-  const annotations = ((layout.annotations as Record<string, unknown>[] | undefined) ?? []).map(a => ({ ...a, font: { ...(a.font as Record<string, unknown>), size: Math.max(5, f - 1) } }))
+  const annotations: Record<string, unknown>[] = ((layout.annotations as Record<string, unknown>[] | undefined) ?? []).map(a => ({ ...a, font: { ...(a.font as Record<string, unknown>), size: Math.max(5, f - 1) } }))
   if (footerLines && provenance) {
     annotations.push({
       name: 'footer', text: footerText(provenance, width, f), xref: 'paper', yref: 'container', x: 0, y: 0, xanchor: 'left', yanchor: 'bottom',

@@ -3,7 +3,10 @@ import { toyErrorSet } from '../../../../shared/physics/sets'
 import { checkReach, parseStudySpec } from '../../../../shared/physics/study'
 
 // A toy grid: x in [1e-5, 0.9], Q² in [2, 1e4] GeV² (made-up densities; only the reach matters).
-const set = toyErrorSet({ kind: 'hessian-pairs', errorMembers: 2, x: [1e-5, 1e-4, 1e-3, 1e-2, 0.1, 0.5, 0.9], q2: [2, 10, 100, 1000, 1e4], scheme: { type: 'fixed', nf: 3 } })
+const set = toyErrorSet({
+  kind: 'hessian-pairs', errorMembers: 2, x: Float64Array.from([1e-5, 1e-4, 1e-3, 1e-2, 0.1, 0.5, 0.9]), q2: Float64Array.from([2, 10, 100, 1000, 1e4]),
+  scheme: { type: 'fixed', nf: 3, massesGeV: { charm: 1.51, bottom: 4.92, top: 172.5 } }
+})
 
 describe('reach messages quote the bin as entered and the limit to narrow to', () => {
   it('a Q² range reaching above the grid: the user\'s range, never a quadrature node, and the largest Q² in reach', () => {
