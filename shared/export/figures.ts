@@ -508,6 +508,9 @@ export function forwardImages(frame: () => FigureImages | null | undefined): Fig
 export const FIGURE_WIDTHS_CM = { single: 8.6, double: 17.8 } as const
 export const CM_TO_PT = 72 / 2.54
 
+/** Font of exported figures: DejaVu Sans, served as FigureSans from public/fonts and embedded in PDFs. */
+export const PAPER_FONT = 'FigureSans, "DejaVu Sans", sans-serif'
+
 /** What the export dialog asks. */
 export interface FigureExportSettings {
   /** Width of the figure on the page, cm. */
@@ -557,7 +560,8 @@ export function paperFigure(figure: Figure, s: FigureExportSettings, provenance?
   const layout: Record<string, unknown> = structuredClone(figure.layout)
   layout.width = width
   layout.height = height
-  layout.font = { ...(layout.font as Record<string, unknown>), size: f }
+  // the PDF's embedded font (DejaVu Sans, public/fonts), so that the widths Plotly measures hold in every format
+  layout.font = { ...(layout.font as Record<string, unknown>), size: f, family: PAPER_FONT }
   layout.legend = { ...legendLayout(s.legend), font: { size: Math.max(5, f - 1) } }
   layout.showlegend = true
   delete layout.title
@@ -580,10 +584,15 @@ export function paperFigure(figure: Figure, s: FigureExportSettings, provenance?
   }
   const annotations: Record<string, unknown>[] = ((layout.annotations as Record<string, unknown>[] | undefined) ?? []).map(a => ({ ...a, font: { ...(a.font as Record<string, unknown>), size: Math.max(5, f - 1) } }))
   if (footerLines && provenance) {
+    // annotations know no container coordinates: the image's bottom edge in paper units
+    const margin = layout.margin as { t: number, b: number }
+    const plotHeight = Math.max(1, height - margin.t - margin.b)
     annotations.push({
-      name: 'footer', text: footerText(provenance, width, f), xref: 'paper', yref: 'container', x: 0, y: 0, xanchor: 'left', yanchor: 'bottom',
-      yshift: 2, showarrow: false, align: 'left', font: { size: Math.max(5, f - 1), color: '#4a555b' }
+      name: 'footer', text: footerText(provenance, width, f), xref: 'paper', yref: 'paper', x: 0, y: -margin.b / plotHeight, xanchor: 'left', yanchor: 'bottom',
+      xshift: -Math.round(4.5 * f) + 4, yshift: 3, showarrow: false, align: 'left', font: { size: Math.max(5, f - 1), color: '#4a555b' }
     })
+    // a legend below the plot sits on the footer, not under it
+    if (s.legend === 'below') layout.legend = { ...(layout.legend as Record<string, unknown>), y: (footerHeight + 2) / height }
   }
   layout.annotations = annotations
   return { data: figure.data, layout }

@@ -47,8 +47,12 @@ describe('figures for a paper', () => {
     const settings = { widthCm: FIGURE_WIDTHS_CM.single, aspect: 4 / 3, fontPt: 8, legend: 'below' as const, footer: true, dpi: 300 }
     expect(figureSizePt(settings)).toEqual({ width: 244, height: 183 })
     const fig = paperFigure(bandFigure({ positions: { lo: [1, 2] }, variable: { label: 'M', unit: 'GeV' }, observable: { label: 'dσ/dM', unit: 'pb/GeV' }, series: [{ id: 'a', label: 'A', band: band([1, 2]) }], note: '68 % CL' }), settings, provenance)
-    expect(fig.layout).toMatchObject({ width: 244, height: 183, font: { size: 8 }, legend: { orientation: 'h', yref: 'container', y: 0 } })
-    const footer = (fig.layout.annotations as Array<{ name?: string, text: string }>).find(a => a.name === 'footer')!
+    expect(fig.layout).toMatchObject({ width: 244, height: 183, font: { size: 8 }, legend: { orientation: 'h', yref: 'container' } })
+    const footer = (fig.layout.annotations as Array<{ name?: string, text: string, y: number }>).find(a => a.name === 'footer')!
+    // the footer at the image's bottom edge (below the plot: negative paper y), the legend on top of it
+    const margin = fig.layout.margin as { t: number, b: number }
+    expect(footer.y).toBeCloseTo(-margin.b / (183 - margin.t - margin.b), 12)
+    expect((fig.layout.legend as { y: number }).y).toBeGreaterThan(0)
     expect(footer.text.replace(/<br>/g, ' ')).toContain('Leading-order prediction; PDF uncertainty only.')
     for (const line of footer.text.split('<br>')) expect(line.length).toBeLessThanOrEqual(Math.floor(244 / (8 * 0.55)))
   })
