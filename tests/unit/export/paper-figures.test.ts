@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest'
 import { axisRange, bandFigure, crc32, decadeText, FIGURE_WIDTHS_CM, figureSizePt, logTicks, paperFigure, pngTextChunks, pngWithText, svgWithMetadata, wrapTitle } from '#shared/export/figures'
 
-const band = (central: number[]) => ({ central, plus: central.map(c => c / 10), minus: central.map(c => c / 10) })
+const band = (central: number[]) => ({ central, plus: central.map(c => c / 10), minus: central.map(c => c / 10), relPlus: central.map(() => 0.1), relMinus: central.map(() => 0.1) })
 const provenance = { title: 'Study A: dσ/dM [pb/GeV]', lines: ['set: Bramble-H 1.2 (Hessian pairs)', 'prescription: Hessian, asymmetric; 68 % CL'], caution: 'Leading-order prediction; PDF uncertainty only.' }
 
 describe('log axes name their decades', () => {
