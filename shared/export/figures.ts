@@ -66,8 +66,9 @@ export type LegendPlace = 'right' | 'below' | 'inside'
 
 /** Plotly legend settings for a place; outside places are added to the margins by Plotly. */
 export function legendLayout(place: LegendPlace): Record<string, unknown> {
-  const common = { bgcolor: 'rgba(255,255,255,0.85)', borderwidth: 0, tracegroupgap: 2, itemsizing: 'constant' }
-  if (place === 'below') return { ...common, orientation: 'h', x: 0, xanchor: 'left', y: 0, yref: 'container', yanchor: 'bottom', entrywidthmode: 'pixels' }
+  const common = { bgcolor: 'rgba(255,255,255,0.85)', borderwidth: 0, tracegroupgap: 2, itemsizing: 'constant', itemwidth: 30 }
+  // 'normal' order flows the entries along the rows (grouped order gives each legend group a row of its own)
+  if (place === 'below') return { ...common, orientation: 'h', traceorder: 'normal', x: 0, xanchor: 'left', y: 0, yref: 'container', yanchor: 'bottom' }
   if (place === 'inside') return { ...common, orientation: 'v', x: 0.99, xanchor: 'right', y: 0.99, yanchor: 'top', bordercolor: '#c9cfd2', borderwidth: 1 }
   return { ...common, orientation: 'v', x: 1.02, xanchor: 'left', y: 1, yanchor: 'top' }
 }
@@ -584,14 +585,13 @@ export function paperFigure(figure: Figure, s: FigureExportSettings, provenance?
   }
   const annotations: Record<string, unknown>[] = ((layout.annotations as Record<string, unknown>[] | undefined) ?? []).map(a => ({ ...a, font: { ...(a.font as Record<string, unknown>), size: Math.max(5, f - 1) } }))
   if (footerLines && provenance) {
-    // annotations know no container coordinates: the image's bottom edge in paper units
-    const margin = layout.margin as { t: number, b: number }
-    const plotHeight = Math.max(1, height - margin.t - margin.b)
-    annotations.push({
-      name: 'footer', text: footerText(provenance, width, f), xref: 'paper', yref: 'paper', x: 0, y: -margin.b / plotHeight, xanchor: 'left', yanchor: 'bottom',
-      xshift: -Math.round(4.5 * f) + 4, yshift: 3, showarrow: false, align: 'left', font: { size: Math.max(5, f - 1), color: '#4a555b' }
-    })
-    // a legend below the plot sits on the footer, not under it
+    // the footer is the layout's title placed at the image's bottom edge (titles take container
+    // coordinates, annotations do not); a legend below the plot sits on top of it
+    layout.title = {
+      // anchored at its top: the lines of a wrapped footer run down to the bottom edge
+      text: footerText(provenance, width, f), xref: 'container', yref: 'container', x: 0, y: (footerHeight - 2) / height, xanchor: 'left', yanchor: 'top',
+      pad: { l: 4 }, font: { size: Math.max(5, f - 1), color: '#4a555b' }, automargin: false
+    }
     if (s.legend === 'below') layout.legend = { ...(layout.legend as Record<string, unknown>), y: (footerHeight + 2) / height }
   }
   layout.annotations = annotations

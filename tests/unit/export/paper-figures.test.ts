@@ -48,10 +48,10 @@ describe('figures for a paper', () => {
     expect(figureSizePt(settings)).toEqual({ width: 244, height: 183 })
     const fig = paperFigure(bandFigure({ positions: { lo: [1, 2] }, variable: { label: 'M', unit: 'GeV' }, observable: { label: 'dσ/dM', unit: 'pb/GeV' }, series: [{ id: 'a', label: 'A', band: band([1, 2]) }], note: '68 % CL' }), settings, provenance)
     expect(fig.layout).toMatchObject({ width: 244, height: 183, font: { size: 8 }, legend: { orientation: 'h', yref: 'container' } })
-    const footer = (fig.layout.annotations as Array<{ name?: string, text: string, y: number }>).find(a => a.name === 'footer')!
-    // the footer at the image's bottom edge (below the plot: negative paper y), the legend on top of it
-    const margin = fig.layout.margin as { t: number, b: number }
-    expect(footer.y).toBeCloseTo(-margin.b / (183 - margin.t - margin.b), 12)
+    const footer = fig.layout.title as { text: string, y: number, yref: string, yanchor: string }
+    // the footer at the image's bottom edge, the legend on top of it
+    expect(footer).toMatchObject({ yref: 'container', yanchor: 'top' })
+    expect(footer.y).toBeLessThan(0.25)
     expect((fig.layout.legend as { y: number }).y).toBeGreaterThan(0)
     expect(footer.text.replace(/<br>/g, ' ')).toContain('Leading-order prediction; PDF uncertainty only.')
     for (const line of footer.text.split('<br>')) expect(line.length).toBeLessThanOrEqual(Math.floor(244 / (8 * 0.55)))
