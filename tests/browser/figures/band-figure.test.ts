@@ -51,7 +51,7 @@ function layoutBoxes(page: Page) {
       notes: all('.annotation'),
       yTitle: box(root.querySelector('.g-ytitle')),
       yTicks: all('.yaxislayer-above .ytick text, .yaxislayer-above text.ytick'),
-      xTicks: all('.xaxislayer-above .xtick text'),
+      xTicks: all('.xaxislayer-above .xtick text, .xaxislayer-above .x2tick text').filter(t => t.text.trim() !== ''),
       layout: (root as unknown as { layout: { xaxis: { type: string }, yaxis: { type: string } } }).layout,
       traces: (root as unknown as { data: Array<{ name?: string, customdata?: Array<unknown[] | null>, x?: Array<number | null>, mode?: string, fill?: string }> }).data
         .map(t => ({ name: t.name, bins: (t.customdata ?? []).filter(Boolean).map(c => (c as number[])[3]!), mode: t.mode, fill: t.fill }))
