@@ -32,6 +32,8 @@ const bins = (n: number) => Array.from({ length: n }, (_, i) => ({ x: Number((1e
 
 /** Installs the in-page timer: an input event starts it, the predicate's first true frame stops it. */
 async function installTimer(page: Page) {
+  // tsx keeps function names with a __name helper that the page does not have (a string is not transformed)
+  await page.evaluate('window.__name = (f) => f')
   await page.evaluate(() => {
     type Want = { kind: 'cell-is' | 'cell-not', row: number, text: string } | { kind: 'count', count: number, row: number }
     const w = window as unknown as { __bench: { t0: number | null, predicate: Want | null, result: number | null, armed: string | null } }
