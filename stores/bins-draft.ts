@@ -1,7 +1,9 @@
 import { defineStore, skipHydrate } from 'pinia'
 import { computed, ref, shallowRef } from 'vue'
-import { emptyRow, errorsByCell, normalizeCell, validateRows } from '#shared/bins'
-import type { BinColumn, BinRow, RowCheck } from '#shared/bins'
+import { cellLocation, emptyRow, errorsByCell, normalizeCell, validateRows } from '#shared/bins'
+import type { BinColumn, BinRow, CellError, RowCheck } from '#shared/bins'
+
+const NONE: Array<Pick<CellError, 'column' | 'reason'>> = []
 
 /** Draft steps kept for undo. */
 const HISTORY = 100
@@ -32,11 +34,56 @@ export const useBinsDraftStore = defineStore('bins-draft', () => {
   const rows = shallowRef<BinRow[]>([])
   const savedRows = shallowRef<BinRow[]>([])
   const extraChecks = shallowRef<RowCheck[]>([])
+  // Checks that look at one row alone (the engine's domain check): their verdict is kept per row
+  // object, so an edit re-checks only the rows it replaced, not all 10,000.
+  const rowChecks = shallowRef<RowCheck[]>([])
   // Earlier and undone drafts. Rows are never mutated, so a snapshot is one array of shared rows.
   const undoStack = shallowRef<BinRow[][]>([])
   const redoStack = shallowRef<BinRow[][]>([])
 
-  const errors = computed(() => validateRows(rows.value, columns.value, extraChecks.value))
+  let verdicts = new WeakMap<BinRow, Array<Pick<CellError, 'column' | 'reason'>>>()
+  let verdictsFor: unknown[] = []
+  const errors = computed<CellError[]>(() => {
+    const cols = columns.value
+    const pure = rowChecks.value
+    const indexed = extraChecks.value
+    if (verdictsFor[0] !== cols || verdictsFor[1] !== pure) {
+      verdicts = new WeakMap()
+      verdictsFor = [cols, pure]
+    }
+    const byKey = new Map(cols.map(c => [c.key, c]))
+    const out: CellError[] = []
+    const list = rows.value
+    // the rows not seen yet (all of them after a load or an import) are checked in one pass
+    const fresh = list.filter(r => !verdicts.has(r))
+    if (fresh.length) {
+      const found = new Map<number, Array<Pick<CellError, 'column' | 'reason'>>>()
+      for (const e of validateRows(fresh, cols, pure)) {
+        const at = found.get(e.row)
+        if (at) at.push({ column: e.column, reason: e.reason })
+        else found.set(e.row, [{ column: e.column, reason: e.reason }])
+      }
+      fresh.forEach((r, k) => verdicts.set(r, found.get(k) ?? NONE))
+    }
+    for (let i = 0; i < list.length; i++) {
+      const row = list[i]!
+      const found = verdicts.get(row)!
+      if (found.length) {
+        for (const f of found) out.push({ row: i, column: f.column, reason: f.reason, message: `${cellLocation(i, byKey.get(f.column)!)}: ${f.reason}` })
+        continue
+      }
+      for (const check of indexed) {
+        for (const problem of check(row, i) ?? []) {
+          const column = byKey.get(problem.column)
+          if (!column) throw new RangeError(`An extra bin check reported unknown column '${problem.column}'`)
+          out.push({ row: i, column: column.key, reason: problem.reason, message: `${cellLocation(i, column)}: ${problem.reason}` })
+        }
+      }
+    }
+    if (!indexed.length) return out
+    const order = new Map(cols.map((c, k) => [c.key, k]))
+    return out.sort((p, q) => p.row - q.row || order.get(p.column)! - order.get(q.column)!)
+  })
   const cellErrors = computed(() => errorsByCell(errors.value))
   const invalidRowCount = computed(() => new Set(errors.value.map(e => e.row)).size)
   const dirty = computed(() => !sameRows(rows.value, savedRows.value, columns.value))
@@ -156,14 +203,25 @@ export const useBinsDraftStore = defineStore('bins-draft', () => {
     savedRows.value = rows.value
   }
 
+  /** Checks that may depend on the row's index (the server's located issues); run on every edit. */
   function setExtraChecks(checks: RowCheck | readonly RowCheck[] | null) {
     extraChecks.value = checks === null ? [] : Array.isArray(checks) ? [...checks] : [checks as RowCheck]
   }
 
+  /** Checks of one row alone (same row, same verdict): their verdict is cached per row. */
+  function setRowChecks(checks: RowCheck | readonly RowCheck[] | null) {
+    const next = checks === null ? [] : Array.isArray(checks) ? [...checks] : [checks as RowCheck]
+    // the same checks again keep the cached verdicts
+    if (next.length !== rowChecks.value.length || next.some((c, i) => c !== rowChecks.value[i])) rowChecks.value = next
+  }
+
+  /** Every check, for reading a file the same way the grid checks it. */
+  const allChecks = computed(() => [...rowChecks.value, ...extraChecks.value])
+
   return {
-    studyId, columns, rows, savedRows, extraChecks: skipHydrate(extraChecks), undoStack: skipHydrate(undoStack), redoStack: skipHydrate(redoStack),
+    studyId, columns, rows, savedRows, extraChecks: skipHydrate(extraChecks), rowChecks: skipHydrate(rowChecks), allChecks: skipHydrate(allChecks), undoStack: skipHydrate(undoStack), redoStack: skipHydrate(redoStack),
     errors, cellErrors, invalidRowCount, dirty, canUndo, canRedo,
-    load, replace, updateCells, updateCell, insertRows, removeRows, moveRows, resetToSaved, markSaved, setExtraChecks, undo, redo
+    load, replace, updateCells, updateCell, insertRows, removeRows, moveRows, resetToSaved, markSaved, setExtraChecks, setRowChecks, undo, redo
   }
 })
 

@@ -113,8 +113,31 @@ export function domainCheck(variables: readonly VariableSpec[]): RowCheck {
 export interface BinIssue { bin?: number, column?: string, message: string }
 
 /**
- * The problems the server found (400/422 `data.issues`) as a grid check: each on its cell, or on
- * the bin's first column when the server names no column of the grid (reach problems).
+ * The cell a located server message is about: the range end the message says to narrow
+ * ("narrow Q² to at most …" → Q² max), else the quantity it names first (a factorisation scale
+ * μ_F² stands for Q² or M, whichever the bins have), else the first kinematic column — never the
+ * label.
+ */
+export function issueColumn(reason: string, columns: readonly BinColumn[]): string {
+  const byQuantity = (q: string, kind?: BinColumn['kind']) => columns.find(c => c.quantity === q && (!kind || c.kind === kind))
+  const narrow = /narrow (x|Q²|M|y) to at (most|least)/.exec(reason)
+  if (narrow) {
+    const c = byQuantity(narrow[1]!, narrow[2] === 'most' ? 'range-hi' : 'range-lo') ?? byQuantity(narrow[1]!)
+    if (c) return c.key
+  }
+  // A reach message names the quantity first ("x = 1e-7 … is below the set's smallest x node").
+  const named = /(?:^|: |\()(x|Q²|M|y|μ_F²)[₁₂]?(?: = | \()/.exec(reason)?.[1]
+  if (named === 'μ_F²') {
+    const c = byQuantity('Q²') ?? byQuantity('M')
+    if (c) return c.key
+  }
+  const c = named ? byQuantity(named) : undefined
+  return (c ?? columns.find(k => k.kind !== 'text' && k.key !== 'label') ?? columns[0]!).key
+}
+
+/**
+ * The problems the server found (400/422 `data.issues`) as a grid check: each on its cell, or,
+ * when the server names no column of the grid (reach problems), on the cell {@link issueColumn} reads from the message.
  */
 export function serverCheck(issues: readonly BinIssue[], columns: readonly BinColumn[]): RowCheck {
   const keys = new Set(columns.map(c => c.key))
@@ -122,9 +145,7 @@ export function serverCheck(issues: readonly BinIssue[], columns: readonly BinCo
   for (const issue of issues) {
     if (!issue.bin || issue.bin < 1) continue
     const reason = issue.message.replace(/(^|: )bin \d+(, column \w+)?: /, '$1')
-    // A reach message names the quantity first ("x = 1e-7 … is below the set's smallest x node").
-    const named = /(?:^|: )(x|Q²|M|y)[₁₂]? = /.exec(reason)?.[1]
-    const column = issue.column && keys.has(issue.column) ? issue.column : ((named && columns.find(c => c.quantity === named)) || columns[0]!).key
+    const column = issue.column && keys.has(issue.column) ? issue.column : issueColumn(reason, columns)
     byRow.set(issue.bin - 1, [...(byRow.get(issue.bin - 1) ?? []), { column, reason }])
   }
   return (_row, index) => byRow.get(index)

@@ -16,7 +16,7 @@ declare module 'plotly.js-dist-min' {
   export interface PlotlyStatic {
     react(el: HTMLElement, data: unknown[], layout?: Record<string, unknown>, config?: Record<string, unknown>): Promise<PlotlyElement>
     purge(el: HTMLElement): void
-    toImage(el: HTMLElement, options: PlotlyImageOptions): Promise<string>
+    toImage(el: HTMLElement | { data: unknown[], layout?: Record<string, unknown> }, options: PlotlyImageOptions): Promise<string>
     downloadImage(el: HTMLElement, options: PlotlyImageOptions & { filename: string }): Promise<string>
     Plots: { resize(el: HTMLElement): void }
   }

@@ -80,17 +80,64 @@ function fmt(v: number): string {
 function outsideMessage(what: string, v: number, r: Range, unit: string, where: string): string {
   const axis = what.startsWith('x') ? 'x' : 'Q²'
   const side = v < r.lo ? `below the set's smallest ${axis} node ${fmt(r.lo)}${unit}` : `above the set's largest ${axis} node ${fmt(r.hi)}${unit}`
-  return `${what} = ${fmt(v)}${unit}${where} is ${side}`
+  // In a bin over a range the value is at a quadrature node: the bin as entered says more.
+  const ranged = where.includes(' to ')
+  return ranged ? `${what}${where} reaches ${side}` : `${what} = ${fmt(v)}${unit}${where} is ${side}`
 }
 
-function describePoint(point: Partial<Record<VariableName, number>>): string {
-  const parts = Object.entries(point).map(([k, v]) => `${k === 'q2' ? 'Q²' : k === 'm' ? 'M' : k} = ${fmt(v!)}`)
-  return parts.length > 0 ? ` (at ${parts.join(', ')})` : ''
+const NAMES: Record<VariableName, [string, string]> = { x: ['x', ''], q2: ['Q²', ' GeV²'], m: ['M', ' GeV'], y: ['y', ''] }
+
+/** The bin as the user entered it (points and ranges, never a quadrature node): " (bin as entered: x = 0.01, Q² 1e+04 to 2e+05 GeV²)". */
+function describeBin(row: StudySpec['bins'][number], variables: readonly { name: VariableName }[]): string {
+  const parts = variables.flatMap(({ name }) => {
+    const [label, unit] = NAMES[name]
+    const point = row[name as BinColumn]
+    if (point !== undefined) return [`${label} = ${fmt(point)}${unit}`]
+    const lo = row[`${name}Min` as BinColumn]
+    const hi = row[`${name}Max` as BinColumn]
+    return lo !== undefined && hi !== undefined ? [`${label} ${fmt(lo)} to ${fmt(hi)}${unit}`] : []
+  })
+  return parts.length > 0 ? ` (bin as entered: ${parts.join(', ')})` : ''
 }
 
-/** Checks a term against the grids; returns a message for the first coordinate outside. */
-function termReach(term: Term, point: Partial<Record<VariableName, number>>, r1: ReturnType<typeof axesRange>, r2: ReturnType<typeof axesRange>): string | null {
-  const where = describePoint(point)
+/** v rounded to 3 significant digits towards the side that stays in reach. */
+function roundInside(v: number, up: boolean): number {
+  if (v === 0) return 0
+  const step = 10 ** (Math.floor(Math.log10(Math.abs(v))) - 2)
+  return Number(((up ? Math.ceil(v / step) : Math.floor(v / step)) * step).toPrecision(3))
+}
+
+/**
+ * How to bring a bin in reach by narrowing one of its ranges: from the failing point towards
+ * an in-reach part of the user's range, the boundary found by bisection (60 halvings), quoted
+ * as "; narrow Q² to at most 9.99e+04 GeV²". Empty when no range of the bin gets it in reach.
+ */
+function narrowing(row: StudySpec['bins'][number], variables: readonly { name: VariableName }[], point: Partial<Record<VariableName, number>>, reachable: (p: Partial<Record<VariableName, number>>) => boolean): string {
+  for (const { name } of variables) {
+    const lo = row[`${name}Min` as BinColumn]
+    const hi = row[`${name}Max` as BinColumn]
+    const t = point[name]
+    if (lo === undefined || hi === undefined || t === undefined) continue
+    const at = (v: number) => reachable({ ...point, [name]: v })
+    const candidates = Array.from({ length: 9 }, (_, k) => lo + (hi - lo) * k / 8).sort((a, b) => Math.abs(a - t) - Math.abs(b - t))
+    const good = candidates.find(at)
+    if (good === undefined) continue
+    let bad = t
+    let ok = good
+    for (let k = 0; k < 60; k++) {
+      const mid = (bad + ok) / 2
+      if (at(mid)) ok = mid
+      else bad = mid
+    }
+    const [label, unit] = NAMES[name]
+    const up = good > t
+    return `; narrow ${label} to ${up ? 'at least' : 'at most'} ${fmt(roundInside(ok, up))}${unit}`
+  }
+  return ''
+}
+
+/** Checks a term against the grids; returns a message for the first coordinate outside (`where` follows the value). */
+function termReach(term: Term, where: string, r1: ReturnType<typeof axesRange>, r2: ReturnType<typeof axesRange>): string | null {
   if (term.kind === 'linear') {
     if (!inside(term.x, r1.x)) return outsideMessage('x', term.x, r1.x, '', where)
     if (!inside(term.mu2GeV2, r1.q2)) return outsideMessage('μ_F²', term.mu2GeV2, r1.q2, ' GeV²', where)
@@ -143,7 +190,20 @@ function expandPart(spec: StudySpec, def: KernelDefinition, options: Record<stri
   const evaluate = def.prepare(options, { ...context, renormalisationScaleFactor: spec.renormalisationScaleFactor ?? 1 })
   const variables = def.variables(options)
   const kappa2 = spec.scaleFactor * spec.scaleFactor
+  /** Whether a point of a bin evaluates and lies inside the grids (for the narrowing hint). */
+  const reachable = (p: Partial<Record<VariableName, number>>) => {
+    try {
+      const term = evaluate(p)
+      return termReach({ ...term, mu2GeV2: term.mu2GeV2 * kappa2 }, '', r1, r2) === null
+    } catch (error) {
+      if (error instanceof RangeError) return false
+      throw error
+    }
+  }
+  // Long decimals in a kernel's message are quadrature nodes, not what the user typed.
+  const shortNumbers = (m: string) => m.replace(/-?\d+\.\d{6,}(e[+-]?\d+)?/g, n => fmt(Number(n)))
   const bins: ExpandedBin[] = spec.bins.map((row, index) => {
+    const given = describeBin(row, variables)
     const terms: Term[] = []
     const weights: number[] = []
     // Tensor product of the variables' quadrature points.
@@ -179,12 +239,15 @@ function expandPart(spec: StudySpec, def: KernelDefinition, options: Record<stri
           term = evaluate(p)
         } catch (error) {
           if (!(error instanceof RangeError)) throw error
-          if (!issues.has(index) || issues.get(index)!.kind === 'grid') issues.set(index, { kind: 'kinematics', message: error.message })
+          if (!issues.has(index) || issues.get(index)!.kind === 'grid') {
+            const hint = def.fullRapidityMass ? '' : narrowing(row, variables, p, reachable)
+            issues.set(index, { kind: 'kinematics', message: `${shortNumbers(error.message)}${given}${hint}` })
+          }
           continue
         }
         term = { ...term, mu2GeV2: term.mu2GeV2 * kappa2 }
-        const why = termReach(term, p, r1, r2)
-        if (why && !issues.has(index)) issues.set(index, { kind: 'grid', message: why })
+        const why = issues.has(index) ? null : termReach(term, given, r1, r2)
+        if (why) issues.set(index, { kind: 'grid', message: `${why}${def.fullRapidityMass ? '' : narrowing(row, variables, p, reachable)}` })
         terms.push(term)
         weights.push(w)
       }

@@ -7,7 +7,10 @@ const plotly = vi.hoisted(() => ({
   react: vi.fn(async (el: HTMLElement) => Object.assign(el, { on: vi.fn() })),
   purge: vi.fn(),
   downloadImage: vi.fn(async () => ''),
-  toImage: vi.fn(async () => 'data:image/png;base64,AAAA'),
+  // a 1 × 1 PNG, and an empty SVG document
+  toImage: vi.fn(async (_el: unknown, o: { format: string }) => (o.format === 'png'
+    ? 'data:image/png;base64,iVBORw0KGgoAAAANSUhEUgAAAAEAAAABCAYAAAAfFcSJAAAADUlEQVR42mNk+M9QDwADhgGAWjR9awAAAABJRU5ErkJggg=='
+    : `data:image/svg+xml,${encodeURIComponent('<svg xmlns="http://www.w3.org/2000/svg" width="900"><g/></svg>')}`)),
   Plots: { resize: vi.fn() }
 }))
 vi.mock('plotly.js-dist-min', () => ({ default: plotly }))
@@ -39,13 +42,21 @@ describe('plots', () => {
     expect(plotly.purge).toHaveBeenCalled()
   })
 
-  it('exports PNG and SVG through the exposed method and the buttons', async () => {
-    const wrapper = mount(BandPlot, { props: { positions: { lo: [1, 2] }, variable: { label: 'x' }, observable: { label: 'y' }, series, filename: 'band' } })
+  it('exports PNG and SVG through the exposed method and the buttons, provenance and caution inside', async () => {
+    const provenance = { title: 'Study A: σ [pb]', lines: ['set: Bramble-H 1.2'], caution: 'Leading-order prediction.' }
+    const wrapper = mount(BandPlot, { props: { positions: { lo: [1, 2] }, variable: { label: 'x' }, observable: { label: 'y' }, series, filename: 'band', provenance } })
     await flushPromises()
-    await (wrapper.vm as unknown as { exportImage: (f: 'png' | 'svg') => Promise<void> }).exportImage('svg')
-    expect(plotly.downloadImage).toHaveBeenLastCalledWith(expect.anything(), { format: 'svg', width: 900, height: 600, scale: 1, filename: 'band' })
+    const vm = wrapper.vm as unknown as { toImage: (f: 'png' | 'svg') => Promise<string>, exportImage: (f: 'png' | 'svg') => Promise<void> }
+    const svg = decodeURIComponent((await vm.toImage('svg')).split(',')[1]!)
+    expect(plotly.toImage).toHaveBeenLastCalledWith(expect.anything(), { format: 'svg', width: 900, height: 600, scale: 1 })
+    expect(svg).toContain('<title>Study A: σ [pb]</title>')
+    expect(svg).toMatch(/<desc>[^<]*set: Bramble-H 1\.2[^<]*caution: Leading-order prediction\.<\/desc>/)
     await wrapper.findAll('button').find(b => b.text() === 'PNG')!.trigger('click')
-    expect(plotly.downloadImage).toHaveBeenLastCalledWith(expect.anything(), { format: 'png', width: 900, height: 600, scale: 2, filename: 'band' })
+    await flushPromises()
+    expect(plotly.toImage).toHaveBeenLastCalledWith(expect.anything(), { format: 'png', width: 900, height: 600, scale: 2 })
+    const png = atob((await vm.toImage('png')).split(',')[1]!)
+    expect(png).toContain('tEXt')
+    expect(png).toContain('Leading-order prediction.')
   })
 
   it('shows the reason instead of a plot when the inputs do not fit', async () => {

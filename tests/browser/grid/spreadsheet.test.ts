@@ -1,0 +1,91 @@
+// The bins grid behaves like a spreadsheet: its height follows the rows, a pasted block's
+// trailing line break adds no bin, the Export menu opens above the grid, and a reach problem
+// sits on the cell to change, quoting the bin as entered and the limit to narrow to.
+import type { Page } from 'playwright-core'
+import { afterAll, beforeAll, describe, expect, it } from 'vitest'
+import { launchBrowser } from '../../support/browser'
+import { openAs, runThroughApi, workflowFixture, type WorkflowFixture } from '../workflow/fixtures'
+
+let browser: Awaited<ReturnType<typeof launchBrowser>>
+beforeAll(async () => { browser = await launchBrowser() })
+afterAll(async () => { await browser?.close() })
+
+const gridHeight = (page: Page) => page.evaluate(() => (document.querySelector('.sheaf-bins .handsontable') as HTMLElement | null)?.getBoundingClientRect().height ?? 0)
+const binCount = async (page: Page) => Number(/(\d+) bins/.exec(await page.getByRole('toolbar', { name: 'Bins' }).innerText())?.[1])
+
+/** Clicks the x cell of 1-based grid row `row`. */
+async function clickCell(page: Page, row: number, column = 0) {
+  await page.locator('.sheaf-bins .ht_master tbody tr').nth(row - 1).locator('td').nth(column).click()
+}
+
+/** Pastes plain text into the grid at its selection, as a spreadsheet's copy puts it on the clipboard. */
+async function paste(page: Page, text: string) {
+  await page.evaluate((t) => {
+    const data = new DataTransfer()
+    data.setData('text/plain', t)
+    const target = document.activeElement ?? document.body
+    target.dispatchEvent(new ClipboardEvent('paste', { clipboardData: data, bubbles: true, cancelable: true }))
+  }, text)
+}
+
+describe('the bins grid as a spreadsheet', () => {
+  let fx: WorkflowFixture
+  beforeAll(async () => { fx = await workflowFixture('Grid as a spreadsheet', 1) })
+
+  it('grows with the rows of an imported CSV file, and a pasted block\'s trailing line break adds no bin', async () => {
+    const page = await openAs(browser.context, fx.ws.analyst, `/studies/${fx.studyId}`)
+    await page.locator('.sheaf-bins .ht_master tbody td').first().waitFor()
+    const before = await gridHeight(page)
+    const csv = ['x,q2', ...Array.from({ length: 12 }, (_, i) => `${(0.01 * (i + 1)).toFixed(2)},10`)].join('\n')
+    await page.locator('.sheaf-bins input[type=file]').setInputFiles({ name: 'twelve.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) })
+    await page.getByText('Read 12 bins from twelve.csv.').waitFor()
+    // 29 px a row: twelve rows need well over 300 px; the grid used to keep the 77 px of one bin until a reload
+    await expect.poll(() => gridHeight(page)).toBeGreaterThan(12 * 29)
+    expect(before).toBeLessThan(12 * 29)
+
+    await clickCell(page, 12)
+    await paste(page, '0.5\t20\n0.6\t30\n')
+    await expect.poll(() => binCount(page)).toBe(13)
+    expect(await page.getByText('a value is required').count()).toBe(0)
+    await page.getByRole('button', { name: 'Save bins' }).click()
+    await page.getByText('Saved 13 bins.').waitFor()
+  })
+
+  it('opens the Export menu above the grid\'s header, so "Figure, PNG" can be clicked and downloads', async () => {
+    const fx2 = await workflowFixture('Export menu above the grid', 6)
+    await runThroughApi(fx2)
+    const page = await openAs(browser.context, fx2.ws.analyst, `/studies/${fx2.studyId}`)
+    await page.locator('[data-band-plot] .main-svg').first().waitFor()
+    await page.locator('.sheaf-bins .ht_master tbody td').first().waitFor()
+    await page.getByRole('button', { name: 'Export ▾' }).click()
+    const item = page.getByRole('menuitem', { name: 'Figure, PNG' })
+    // the grid's header must not cover the item: Playwright refuses a click another element would take
+    const [download] = await Promise.all([page.waitForEvent('download', { timeout: 20_000 }), item.click({ timeout: 5_000 })])
+    expect(download.suggestedFilename()).toMatch(/\.png$/)
+  })
+
+  it('puts a reach problem on the Q² max cell, quoting the range as entered and the largest Q² the set reaches', async () => {
+    const study = await fx.ws.analyst.client.post(`/api/workspaces/${fx.ws.id}/studies`, {
+      name: 'Wide Q² bin', spec: { kernel: 'dis-nc-f2', options: {}, bins: [{ x: 0.01, q2Min: 100, q2Max: 1000 }] }, setIds: [fx.hessianId]
+    })
+    expect(study.status).toBe(201)
+    const page = await openAs(browser.context, fx.ws.analyst, `/studies/${study.body.id}`)
+    await page.locator('.sheaf-bins .ht_master tbody td').first().waitFor()
+    // columns: x, Q² min, Q² max, label — the toy set's grid ends at Q² = 10⁵ GeV²
+    await clickCell(page, 1, 2)
+    await page.keyboard.type('200000')
+    await page.keyboard.press('Enter')
+    const invalid = page.locator('.sheaf-bins .ht_master tbody td.htInvalid')
+    await invalid.first().waitFor({ timeout: 15_000 })
+    const headers = await page.evaluate(() => {
+      const table = document.querySelector('.sheaf-bins .ht_master table.htCore')!
+      const heads = Array.from(table.querySelectorAll('thead tr:last-child th')).map(th => th.textContent?.trim() ?? '')
+      return Array.from(table.querySelectorAll('tbody td.htInvalid')).map(td => heads[(td as HTMLTableCellElement).cellIndex])
+    })
+    expect(headers).toEqual(['Q² max [GeV²]'])
+    const list = await page.getByText(/Bins to fix before running/).locator('..').innerText()
+    expect(list).toContain('Q² 100 to 200000 GeV²')
+    expect(list).toMatch(/narrow Q² to at most 1e\+05 GeV²|narrow Q² to at most 100000 GeV²/)
+    expect(list).not.toMatch(/\d\.\d{7,}/) // no quadrature node
+  })
+})
