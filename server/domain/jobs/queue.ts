@@ -30,10 +30,14 @@ export function runChunks(members: number, chunkMembers = Math.max(16, Math.ceil
   return chunks
 }
 
-/** Options of each member chunk: more tries than the parent (a chunk is cheap to redo). */
+/**
+ * Options of each member chunk and of the flow's parent: tries spaced 1, 2, 4, 8, 16 s apart, so
+ * a database or Redis restart of up to half a minute costs a retry, not the run (a chunk is cheap
+ * to redo, and redoing it is idempotent).
+ */
+const flowRetries = { attempts: 6, backoff: { type: 'exponential', delay: 1000 } } as const
 export const chunkJobOptions = {
-  attempts: 3,
-  backoff: { type: 'fixed', delay: 500 },
+  ...flowRetries,
   failParentOnFailure: true,
   removeOnComplete: { count: 2000 },
   removeOnFail: { count: 500 }
@@ -58,7 +62,7 @@ function flowOf(queue: Queue): FlowProducer {
 export async function addRunFlow(queue: Queue, id: string, payload: Record<string, unknown>, chunks: Array<[number, number]>, options: EnqueueOptions = {}) {
   const priority = options.priority !== undefined ? { priority: options.priority } : {}
   await flowOf(queue).add({
-    name: queue.name, queueName: queue.name, data: { ...payload, chunks }, opts: { jobId: id, ...workflowJobOptions, ...priority },
+    name: queue.name, queueName: queue.name, data: { ...payload, chunks }, opts: { jobId: id, ...workflowJobOptions, ...flowRetries, ...priority },
     children: chunks.map(([m0, m1], k) => {
       const data: RunChunkPayload = { resultId: id, m0, m1 }
       return { name: 'chunk', queueName: chunkQueueOf(queue.name), data, opts: { jobId: `${id}-c${k}`, ...chunkJobOptions, ...priority } }

@@ -3,9 +3,10 @@
 // put in SharedArrayBuffers once, so a task carries only views: a thread reads the plan and the
 // members where they are and writes its members' values straight into the shared output.
 // The engine (shared/physics) stays free of node: modules; the threads live here.
-import { mkdtempSync, rmSync } from 'node:fs'
+import { createHash } from 'node:crypto'
+import { existsSync, mkdirSync, readdirSync, readFileSync, renameSync, statSync } from 'node:fs'
 import { availableParallelism, tmpdir } from 'node:os'
-import { dirname, join } from 'node:path'
+import { dirname, join, resolve } from 'node:path'
 import { fileURLToPath } from 'node:url'
 import { buildSync } from 'esbuild'
 import { Piscina } from 'piscina'
@@ -26,27 +27,53 @@ export function poolThreads(): number {
 let pool: Piscina<PoolTask, unknown> | null = null
 
 /**
- * The threads' code: pool-task.ts and what it imports bundled into one ES module in a temporary
- * folder (esbuild, well under a second), so a thread loads plain JavaScript at once. Through
+ * The threads' code: pool-task.ts and what it imports bundled into one ES module in the
+ * temporary folder (esbuild; once per state of the sources, the machine's workers share it), so
+ * a thread loads plain JavaScript at once. Through
  * tsx's loader (pool-thread.mjs, the fallback) each thread took over 10 s to start on a busy
  * 2-core machine.
  */
 function threadFile(): { filename: string, execArgv?: string[] } {
   try {
-    const outfile = join(mkdtempSync(join(tmpdir(), 'sheaf-pool-')), 'pool-task.mjs')
-    buildSync({
-      entryPoints: [fileURLToPath(new URL('./pool-task.ts', import.meta.url))], outfile,
-      bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'silent',
-      // CommonJS packages bundled into ESM still call require(): give them one.
-      banner: { js: 'import { createRequire as __sheafRequire } from "node:module"; const require = __sheafRequire(import.meta.url);' }
-    })
-    process.once('exit', () => rmSync(dirname(outfile), { recursive: true, force: true }))
+    const entry = fileURLToPath(new URL('./pool-task.ts', import.meta.url))
+    // One bundle per state of the sources, shared by the worker processes of this machine.
+    const dir = join(tmpdir(), `sheaf-pool-${sourcesKey(resolve(dirname(entry), '../../..'))}`)
+    const outfile = join(dir, 'pool-task.mjs')
+    if (!existsSync(outfile)) {
+      mkdirSync(dir, { recursive: true })
+      const partial = `${outfile}.${process.pid}`
+      buildSync({
+        entryPoints: [entry], outfile: partial,
+        bundle: true, platform: 'node', format: 'esm', target: 'node20', logLevel: 'silent',
+        // CommonJS packages bundled into ESM still call require(): give them one.
+        banner: { js: 'import { createRequire as __sheafRequire } from "node:module"; const require = __sheafRequire(import.meta.url);' }
+      })
+      renameSync(partial, outfile)
+    }
     // Plain JavaScript: the threads need none of the parent's loaders (tsx's would start its own esbuild).
     return { filename: outfile, execArgv: [] }
   } catch (err) {
     console.error(`[pool] bundling the thread code failed, loading it through tsx: ${(err as Error).message.split('\n')[0]}`)
     return { filename: fileURLToPath(new URL('./pool-thread.mjs', import.meta.url)) }
   }
+}
+
+/** A short hash of the names, sizes and times of the sources a thread may load, and of the Node version. */
+function sourcesKey(root: string): string {
+  const hash = createHash('sha256').update(process.version)
+  const walk = (dir: string) => {
+    for (const entry of readdirSync(dir, { withFileTypes: true }).sort((a, b) => a.name.localeCompare(b.name))) {
+      const path = join(dir, entry.name)
+      if (entry.isDirectory()) walk(path)
+      else if (/\.(ts|mjs|js|json)$/.test(entry.name)) {
+        const st = statSync(path)
+        hash.update(`${path}:${st.size}:${st.mtimeMs}\n`)
+      }
+    }
+  }
+  for (const dir of ['server/domain', 'server/database/schema', 'shared']) walk(join(root, dir))
+  hash.update(readFileSync(join(root, 'package-lock.json')))
+  return hash.digest('hex').slice(0, 16)
 }
 
 /** The process's pool, started on first use. */

@@ -21,7 +21,8 @@ export async function startWorker(name: string, env: Record<string, string>): Pr
     s.on('data', (d: Buffer) => { text += d.toString() })
     s.pipe(log)
   }
-  const deadline = Date.now() + 45_000
+  // Loading the worker's sources through tsx and bundling the pool's code take seconds of CPU each.
+  const deadline = Date.now() + 300_000
   while ((text.match(/listening on queue/g) ?? []).length < 3 || !text.includes('evaluation pool')) {
     if (child.exitCode !== null) throw new Error(`worker ${name} exited: ${text}`)
     if (Date.now() > deadline) throw new Error(`worker ${name} did not start: ${text}`)
