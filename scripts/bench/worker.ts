@@ -86,7 +86,7 @@ export async function runWorkerBench(io: CliIo, o: { fit: string, replicas: numb
 
   // (e) the after-phase of 10 000 bins × 101 members, for a replica set and a Hessian set.
   const big = benchmarkSpec(400, 25, 8)
-  say(`(e) after-phase of ${big.bins.length} Drell–Yan bins × 101 members (target ≤ 1 s from "100 %" to stored):`)
+  say(`(e) after-phase of ${big.bins.length} Drell–Yan bins (target ≤ 1 s from "100 %" to stored, for 101 members):`)
   const client = await connect()
   for (const set of [replicas100, hessian]) {
     const bigPlan = sharedDeep(buildPlan(big, set))
