@@ -10,9 +10,26 @@ export const RUN_STUDY_QUEUE = 'run-study'
 /** Build an error set from a parametrised fit (evolution + members). */
 export const BUILD_SET_QUEUE = 'build-set'
 
+/** Member chunks of a large run, children of its run-study job in a BullMQ flow: `<queue>-chunk`. */
+export const chunkQueueOf = (runQueue: string) => `${runQueue}-chunk`
+export const RUN_CHUNK_QUEUE = chunkQueueOf(RUN_STUDY_QUEUE)
+
+export const runChunkPayload = z.object({
+  resultId: z.uuid(),
+  /** Members [m0, m1) of the varying set. */
+  m0: z.number().int().min(0),
+  m1: z.number().int().min(1)
+})
+export type RunChunkPayload = z.infer<typeof runChunkPayload>
+
 export const runStudyPayload = z.object({
   /** The `results` row this job fills. */
-  resultId: z.uuid()
+  resultId: z.uuid(),
+  /**
+   * Member ranges [m0, m1) evaluated by the child jobs of this job's flow (a large run spread
+   * over workers); this job then only combines and stores. Absent: the job evaluates everything.
+   */
+  chunks: z.array(z.tuple([z.number().int().min(0), z.number().int().min(1)])).optional()
 })
 export type RunStudyPayload = z.infer<typeof runStudyPayload>
 
@@ -32,8 +49,16 @@ export interface SetBuildRequest {
   grid?: unknown
 }
 
+/**
+ * The phases a run or build names in its progress, in order: waiting on the queue, the engine
+ * evaluating (a run) or evolving (a build) the members, the bands of every prescription and the
+ * scale variation, and the one transaction that stores it all.
+ */
+export const JOB_PHASES = ['queued', 'evaluating members', 'evolving members', 'combining', 'storing'] as const
+export type JobPhase = typeof JOB_PHASES[number]
+
 /** Progress a job reports through job.updateProgress (and into its row). */
-export const jobProgress = z.object({ done: z.number().int().min(0), total: z.number().int().min(0) })
+export const jobProgress = z.object({ done: z.number().int().min(0), total: z.number().int().min(0), phase: z.enum(JOB_PHASES).optional() })
 export type JobProgress = z.infer<typeof jobProgress>
 
 /** Default BullMQ job options: two attempts (a retry is idempotent), keep a short history. */

@@ -13,7 +13,7 @@ import {
 } from 'drizzle-orm/pg-core'
 import type { SetHeader, SetTarget } from '../../../shared/physics/types'
 import type { StudySpec } from '../../../shared/physics/study/spec'
-import type { SetBuildRequest } from '../../../shared/queue/workflow'
+import { JOB_PHASES, type SetBuildRequest } from '../../../shared/queue/workflow'
 import { users, workspaces } from './accounts'
 import { bytea, createdAt, updatedAt } from './columns'
 import type { MeasurementJson, ScaleVariationJson, SpecSnapshot, StoredBands } from './json'
@@ -22,6 +22,8 @@ import type { MeasurementJson, ScaleVariationJson, SpecSnapshot, StoredBands } f
 export const setKinds = ['hessian-pairs', 'hessian-one-sided', 'replicas'] as const
 /** States of anything that runs on the queue (a result, a set build). */
 export const jobStates = ['queued', 'running', 'done', 'failed', 'cancelled'] as const
+/** What a queued or running job is doing now (shared/queue/workflow.ts JOB_PHASES). */
+export const jobPhases = JOB_PHASES
 export type JobState = typeof jobStates[number]
 /** Review states of a result version; `approved` freezes it. */
 export const reviewStates = ['draft', 'submitted', 'approved', 'returned'] as const
@@ -34,6 +36,8 @@ const queuedWork = () => ({
   error: text(),
   /** Set by Cancel; the worker stops at the next chunk. */
   cancelRequested: boolean().notNull().default(false),
+  /** The phase named in the progress: queued, evaluating/evolving members, combining, storing. */
+  phase: text({ enum: jobPhases }).notNull().default('queued'),
   requestedBy: uuid().references(() => users.id, { onDelete: 'set null' }),
   /** BullMQ job id (= the row id). */
   jobId: text(),

@@ -1,7 +1,8 @@
 // Building an error set from a parametrised fit (a set_builds row), in one function used by the
 // worker and by tests: the engine evolves every member with progress into the row and the
-// caller's callback, stopping at the cancel flag; the set file is stored as a new library set
-// together with the row's `done` state in one transaction. Idempotent: a finished build is not
+// caller's callback (phase "evolving members", then "storing"), stopping at the cancel flag;
+// the set file is stored as a new library set together with the row's `done` state in one
+// transaction. Idempotent: a finished build is not
 // rebuilt; an unfinished one starts over. A RangeError (bad fit: no covariance, a divergent
 // member) fails at once without retries.
 import { eq } from 'drizzle-orm'
@@ -15,7 +16,7 @@ import { SET_FILE_EXTENSION } from '../../../shared/physics/sets/format'
 import { writeSetFile } from '../../../shared/physics/sets/write'
 import { ENGINE_VERSION } from '../../../shared/physics/version'
 import type { JobProgress } from '../../../shared/queue/workflow'
-import { JobCancelled, ONLY_ATTEMPT, runQueuedWork, type Attempt } from '../jobs/lifecycle'
+import { type CancelWatch, JobCancelled, ONLY_ATTEMPT, runQueuedWork, type Attempt } from '../jobs/lifecycle'
 import { notifyBuildEnded } from '../mail/job-ended'
 import type { Settings } from '../settings'
 import { insertErrorSet } from './store'
@@ -30,13 +31,13 @@ export interface RunOptions {
 /** Runs the set build `buildId` to its end (see the file comment). */
 export function runSetBuild(db: DB, buildId: string, o: RunOptions = {}) {
   return runQueuedWork<SetBuild, { setId: string }>(db, o.attempt ?? ONLY_ATTEMPT, {
-    table: t.setBuilds, id: buildId, resetProgress: { progressDone: 0 },
-    work: async row => ({ setId: await build(db, row, o.onProgress) }),
+    table: t.setBuilds, id: buildId, resetProgress: { progressDone: 0, phase: 'evolving members' },
+    work: async (row, cancel) => ({ setId: await build(db, row, o.onProgress, cancel) }),
     ended: o.mail ? () => notifyBuildEnded(db, o.mail!, buildId) : undefined
   })
 }
 
-async function build(db: DB, b: SetBuild, onProgress: RunOptions['onProgress']): Promise<string> {
+async function build(db: DB, b: SetBuild, onProgress: RunOptions['onProgress'], cancel: CancelWatch): Promise<string> {
   const document = parseInputDocument(b.request.input, 'input')
   const baseline = b.request.baseline !== undefined ? parseInputDocument(b.request.baseline, 'baseline') : undefined
   const model = compileInput(document, baseline)
@@ -48,10 +49,14 @@ async function build(db: DB, b: SetBuild, onProgress: RunOptions['onProgress']):
     onProgress: async (done, total) => {
       const [row] = await db.update(t.setBuilds).set({ progressDone: done, progressTotal: total })
         .where(eq(t.setBuilds.id, b.id)).returning({ cancel: t.setBuilds.cancelRequested })
-      await onProgress?.({ done, total })
+      await onProgress?.({ done, total, phase: 'evolving members' })
       if (!row || row.cancel) throw new JobCancelled()
+      cancel.check()
     }
   })
+  await db.update(t.setBuilds).set({ phase: 'storing' }).where(eq(t.setBuilds.id, b.id))
+  await onProgress?.({ done: set.members.length, total: set.members.length, phase: 'storing' })
+  cancel.check()
   const bytes = writeSetFile(set)
   return db.transaction(async (tx) => {
     const [current] = await tx.select({ cancel: t.setBuilds.cancelRequested }).from(t.setBuilds).where(eq(t.setBuilds.id, b.id)).for('update')

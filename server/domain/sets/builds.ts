@@ -19,7 +19,7 @@ import { assertQuota } from './store'
  * queue, else null; pass rows through `withQueuePlaces` to fill it.
  */
 export const publicSetBuild = (b: SetBuild & { queuePlace?: number | null }) => ({
-  id: b.id, name: b.name, state: b.state, progress: { done: b.progressDone, total: b.progressTotal },
+  id: b.id, name: b.name, state: b.state, phase: b.phase, progress: { done: b.progressDone, total: b.progressTotal },
   error: b.error, setId: b.setId, requestedBy: b.requestedBy, createdAt: b.createdAt,
   startedAt: b.startedAt, finishedAt: b.finishedAt, cancelRequested: b.cancelRequested,
   queuePlace: b.state === 'queued' ? (b.queuePlace ?? null) : null

@@ -1,127 +1,274 @@
 // Running one study on one set (a `results` row) in ONE function, used by the worker, the seed
-// and the command line alike: every member through the engine's precomputed plan, in chunks with
-// progress (members done / total) into the row and the caller's callback, stopping at the cancel
-// flag; then the member values, the scale variations and the bands of every prescription of the
-// set's kind at the study's CL in one transaction. Idempotent: a retry of a finished result does
-// nothing, a retry of an unfinished one recomputes and overwrites the same rows (result_values
-// keyed by result id). Bad physics input (a RangeError from the engine) fails at once.
-import { eq } from 'drizzle-orm'
+// and the command line alike. Phases, named in the row's progress: "evaluating members" (every
+// member through the engine's precomputed plan, on every core of the evaluation pool when the
+// work is large, in chunks with progress (members done / total)), "combining" (the bands of every
+// prescription of the set's kind at the study's CL; the scale variation of the central members
+// ran beside the members), "storing" (values, scale variation and bands in one transaction).
+// The cancel flag is watched all along (lifecycle.ts watchCancel). A large run may instead be
+// evaluated as member chunks by any number of workers (evaluateRunChunk, the chunk jobs of a
+// BullMQ flow) and combined here from their values (`memberValues`). Idempotent: a retry of a
+// finished result does nothing, a retry of an unfinished one recomputes and overwrites the same
+// rows (result_values keyed by result id). Bad physics input (a RangeError) fails at once.
+import { and, eq, inArray, sql } from 'drizzle-orm'
 import type { DB } from '../../database/client'
 import { tables as t } from '../../database/client'
-import type { Result, ScaleVariationJson } from '../../database/schema'
-import { buildPlan, evaluatePlan } from '../../../shared/physics/study/plan'
-import { memberAlphasFunctions } from '../../../shared/physics/study/member-alphas'
-import { scaleVariation } from '../../../shared/physics/study/scale'
+import type { Result, ScaleVariationJson, StoredBands } from '../../database/schema'
+import type { Plan } from '../../../shared/physics/study/plan'
 import { parseStudySpec, type StudySpec } from '../../../shared/physics/study/spec'
 import type { ErrorSet } from '../../../shared/physics/types'
 import { prescriptionsFor } from '../../../shared/physics/uncertainty/bands'
 import { ENGINE_VERSION } from '../../../shared/physics/version'
-import type { JobProgress } from '../../../shared/queue/workflow'
-import { JobCancelled, ONLY_ATTEMPT, runQueuedWork } from '../jobs/lifecycle'
+import type { JobPhase, JobProgress } from '../../../shared/queue/workflow'
+import { type CancelWatch, isCancel, JobCancelled, ONLY_ATTEMPT, runQueuedWork, watchCancel } from '../jobs/lifecycle'
 import { notifyRunEnded } from '../mail/job-ended'
 import { storedBands, bandsFromValues, memberSourceOf } from '../results/bands'
 import { float64ToBytes } from '../results/float64'
 import type { RunOptions } from '../sets/build'
 import { loadErrorSet } from '../sets/store'
-import { kernelContextOf, pairRoles, runSizeProblem, studySizeProblem } from './check'
+import { pairRoles, runSizeProblem, studySizeProblem } from './check'
+import { bandsOnPool, evaluateOnPool, planOnPool, poolThreads, scaleOnPool, shared, sharedDeep, sharedMembers } from './pool'
+import { type MemberAlphas, planOf, runMembers } from './pool-task'
+import { scaleVariationOf } from './scale'
 
-/** Members per chunk: progress is reported and the cancel flag read after each chunk. */
+/** Members per inline chunk: progress is reported and the cancel flag read after each chunk. */
 const chunkSize = (members: number) => Math.max(1, Math.min(25, Math.ceil(members / 20)))
 
+/**
+ * Work (members × quadrature points) from which the pool is used: below it (about 0.1 s on one
+ * core) handing the work to threads costs more than it saves.
+ */
+export const POOL_MIN_WORK = 1_000_000
+
+export interface StudyRunOptions extends RunOptions {
+  /** 'auto' (default): the pool for large work when the machine has more than one core; false: inline. */
+  pool?: 'auto' | boolean
+  /** Member values evaluated elsewhere (the chunks of a flow), members × bins; skips the evaluation. */
+  memberValues?: () => Promise<Float64Array>
+}
+
 /** Runs result `resultId` to its end (see the file comment). */
-export function runStudy(db: DB, resultId: string, o: RunOptions = {}) {
+export function runStudy(db: DB, resultId: string, o: StudyRunOptions = {}) {
   return runQueuedWork<Result, { members: number, bins: number }>(db, o.attempt ?? ONLY_ATTEMPT, {
-    table: t.results, id: resultId, resetProgress: { membersDone: 0 },
-    work: row => compute(db, row, o.onProgress),
+    table: t.results, id: resultId,
+    resetProgress: o.memberValues ? { phase: 'combining' } : { membersDone: 0, phase: 'evaluating members' },
+    work: (row, cancel) => compute(db, row, o, cancel),
     ended: o.mail ? () => notifyRunEnded(db, o.mail!, resultId) : undefined
   })
 }
 
-async function compute(db: DB, result: Result, onProgress: RunOptions['onProgress']) {
-  const snapshot = result.specSnapshot
-  const spec = parseStudySpec(snapshot.spec)
-  // Runs queued before the budgets existed (or under larger ones) fail at once, before loading.
-  const tooLarge = studySizeProblem(spec) ?? runSizeProblem(spec, snapshot.set)
-  if (tooLarge) throw new RangeError(tooLarge.message)
-  const set = await loadErrorSet(db, result.setId)
-  const second = result.secondSetId ? await loadErrorSet(db, result.secondSetId) : null
-  const values = await evaluateMembers(db, result, spec, set, second, onProgress)
-  const scale = evaluateScaleVariations(spec, set, second)
-  const source = memberSourceOf(set.header)
+/** What a run needs before evaluating: the spec, both sets in their roles, and the plan. */
+interface Prepared {
+  spec: StudySpec
+  set: ErrorSet
+  roles: ReturnType<typeof pairRoles<ErrorSet>>
+  /** The plan in shared memory (the pool reads it where it is). */
+  plan: Plan
+  members: number
+}
+
+const prepared = new Map<string, Promise<Prepared>>()
+
+/**
+ * Studies from this many bins have their plan built on a pool thread: on the main thread it
+ * would hold up the renewal of the job's lock for seconds.
+ */
+export const PLAN_ON_POOL_BINS = 2000
+
+/** The spec, sets and plan of a result, kept for the last few results (a worker's chunk jobs share them). */
+function prepare(db: DB, result: Result, pool: StudyRunOptions['pool']): Promise<Prepared> {
+  let hit = prepared.get(result.id)
+  if (!hit) {
+    hit = (async () => {
+      const snapshot = result.specSnapshot
+      const spec = parseStudySpec(snapshot.spec)
+      // Runs queued before the budgets existed (or under larger ones) fail at once, before loading.
+      const tooLarge = studySizeProblem(spec) ?? runSizeProblem(spec, snapshot.set)
+      if (tooLarge) throw new RangeError(tooLarge.message)
+      const set = await loadErrorSet(db, result.setId)
+      const second = result.secondSetId ? await loadErrorSet(db, result.secondSetId) : null
+      const roles = pairRoles(set, second)
+      const plan = pool !== false && spec.bins.length >= PLAN_ON_POOL_BINS
+        ? await planOnPool(spec, roles.main, roles.second)
+        : sharedDeep(planOf(spec, roles.main, roles.second))
+      return { spec, set, roles, plan, members: set.members.length }
+    })()
+    prepared.set(result.id, hit)
+    hit.catch(() => prepared.delete(result.id))
+    while (prepared.size > 4) prepared.delete(prepared.keys().next().value!)
+  }
+  return hit
+}
+
+const usePool = (pool: StudyRunOptions['pool'], members: number, plan: Plan) =>
+  pool === true || (pool !== false && poolThreads() > 1 && members * Math.max(1, plan.points) >= POOL_MIN_WORK)
+
+async function setPhase(db: DB, id: string, phase: JobPhase, done: number, total: number, onProgress: RunOptions['onProgress']) {
+  await db.update(t.results).set({ phase }).where(eq(t.results.id, id))
+  await onProgress?.({ done, total, phase })
+}
+
+async function compute(db: DB, result: Result, o: StudyRunOptions, cancel: CancelWatch) {
+  const p = await prepare(db, result, o.pool)
+  const pool = usePool(o.pool, p.members, p.plan)
+  const { main, second } = p.roles
+  // The scale variation needs only the central members: it runs beside the member evaluation.
+  const scale = pool ? scaleOnPool(p.spec, main, second, cancel.signal) : null
+  scale?.catch(() => {})
+  const values = o.memberValues
+    ? await o.memberValues()
+    : await evaluateMembers(db, result, p, pool, o.onProgress, cancel)
+  if (values.length !== p.members * p.plan.nBins) throw new Error(`Member values of ${values.length} numbers for ${p.members} members × ${p.plan.nBins} bins`)
+  cancel.check()
+  await setPhase(db, result.id, 'combining', p.members, p.members, o.onProgress)
+  const combined = await combineRun(p.spec, p.set, second ? p.roles : null, values, result.specSnapshot.clPercent, { pool, signal: cancel.signal, scale })
+  cancel.check()
+  await setPhase(db, result.id, 'storing', p.members, p.members, o.onProgress)
+  await storeRun(db, result, combined, cancel)
+  prepared.delete(result.id)
+  return { members: p.members, bins: p.plan.nBins }
+}
+
+/** Everything a finished run stores. */
+export interface CombinedRun {
+  members: number
+  bins: number
+  values: Float64Array
+  scale: ScaleVariationJson | null
+  bands: StoredBands[]
+}
+
+/**
+ * The after-phase's computing: the bands of every prescription of the set's kind (on the pool's
+ * threads in parallel, or inline) and the scale variation (awaited when it already runs on the
+ * pool, else computed here). `roles` carries the second set when the study reads two.
+ */
+export async function combineRun(spec: StudySpec, set: ErrorSet, roles: { main: ErrorSet, second: ErrorSet | null } | null, values: Float64Array, clPercent: number,
+  o: { pool: boolean, signal?: AbortSignal, scale?: Promise<ScaleVariationJson | null> | null }): Promise<CombinedRun> {
   const matrix = { members: set.members.length, bins: spec.bins.length, values }
-  const bands = prescriptionsFor(set.header.kind).map(p => storedBands(bandsFromValues(matrix, source, p, snapshot.clPercent)))
+  const source = memberSourceOf(set.header)
+  const main = roles?.main ?? set
+  const second = roles?.second ?? null
+  let bands: StoredBands[]
+  let scale: ScaleVariationJson | null
+  if (o.pool) {
+    const sharedMatrix = { ...matrix, values: shared(values) }
+    const pending = prescriptionsFor(set.header.kind).map(p => bandsOnPool(sharedMatrix, source, p, clPercent, o.signal))
+    const scaleNow = o.scale ?? scaleOnPool(spec, main, second, o.signal)
+    bands = await Promise.all(pending)
+    scale = await scaleNow
+  } else {
+    bands = prescriptionsFor(set.header.kind).map(p => storedBands(bandsFromValues(matrix, source, p, clPercent)))
+    scale = o.scale ? await o.scale : scaleVariationOf(spec, main, second)
+  }
+  return { members: matrix.members, bins: matrix.bins, values, scale, bands }
+}
+
+/** The storing phase: values, scale variation, bands, state and audit event in one transaction. */
+export async function storeRun(db: DB, result: Result, c: CombinedRun, cancel?: CancelWatch) {
   await db.transaction(async (tx) => {
     const [current] = await tx.select({ cancel: t.results.cancelRequested }).from(t.results).where(eq(t.results.id, result.id)).for('update')
     if (!current || current.cancel) throw new JobCancelled()
-    const row = { resultId: result.id, memberCount: matrix.members, binCount: matrix.bins, values: float64ToBytes(values), scale }
+    cancel?.check()
+    const row = { resultId: result.id, memberCount: c.members, binCount: c.bins, values: float64ToBytes(c.values), scale: c.scale }
     await tx.insert(t.resultValues).values(row).onConflictDoUpdate({ target: t.resultValues.resultId, set: row })
     await tx.delete(t.resultBands).where(eq(t.resultBands.resultId, result.id))
-    await tx.insert(t.resultBands).values(bands.map(b => ({ resultId: result.id, prescription: b.prescription, clPercent: snapshot.clPercent, bands: b })))
+    await tx.insert(t.resultBands).values(c.bands.map(b => ({ resultId: result.id, prescription: b.prescription, clPercent: result.specSnapshot.clPercent, bands: b })))
     await tx.update(t.results).set({
-      state: 'done', membersDone: matrix.members, finishedAt: new Date(), error: null, engineVersion: ENGINE_VERSION
+      state: 'done', membersDone: c.members, finishedAt: new Date(), error: null, engineVersion: ENGINE_VERSION
     }).where(eq(t.results.id, result.id))
     const [study] = await tx.select({ workspaceId: t.studies.workspaceId }).from(t.studies).where(eq(t.studies.id, result.studyId))
     await tx.insert(t.auditEvents).values({
       workspaceId: study?.workspaceId ?? null, actorId: result.requestedBy, action: 'result.ran', subjectType: 'result', subjectId: result.id,
-      detail: { members: matrix.members, bins: matrix.bins, ms: Date.now() - (result.startedAt?.getTime() ?? Date.now()) }
+      detail: { members: c.members, bins: c.bins, ms: Date.now() - (result.startedAt?.getTime() ?? Date.now()) }
     })
   })
-  return { members: matrix.members, bins: matrix.bins }
 }
 
-/** The plan on the main set's grid (with the second set's), whichever of the two varies. */
-function planFor(spec: StudySpec, main: ErrorSet, second: ErrorSet | null) {
-  return buildPlan(spec, main, { ...kernelContextOf(main.header), ...(second ? { second } : {}) })
+/** The members m0…m1 of the varying set with the partner's central member (if any), as a pool or inline evaluation takes them. */
+function memberInputs(p: Prepared, m0: number, m1: number) {
+  const varying = p.roles.varyingRole === 'main' ? p.roles.main : p.roles.second!
+  const fixedSet = p.roles.varyingRole === 'main' ? p.roles.second : p.roles.main
+  // Kernels with α_s (gg → H) run each member of the varying main set with its own α_s(M_Z).
+  const h = varying.header
+  const alphas: MemberAlphas | null = p.roles.varyingRole === 'main' && p.plan.alphas
+    ? { header: { alphasMz: h.alphasMz, alphasMzCentral: h.alphasMzCentral, scheme: h.scheme, memberCount: varying.members.length }, first: m0 }
+    : null
+  return { varying, fixed: fixedSet ? fixedSet.members[0]! : null, role: p.roles.varyingRole, m0, m1, alphas }
 }
 
 /**
- * members × bins values of the varying set, member-major, evaluated chunk by chunk with progress
- * and cancel checks; the partner set (if any) is held at its central member.
+ * members m0…m1 × bins values of the varying set, member-major, with progress and cancel checks;
+ * the partner set (if any) is held at its central member. `progress(n)` records n more members.
  */
-async function evaluateMembers(db: DB, result: Result, spec: StudySpec, set: ErrorSet, partner: ErrorSet | null, onProgress: RunOptions['onProgress']) {
-  const roles = pairRoles(set, partner)
-  const plan = planFor(spec, roles.main, roles.second)
-  const total = set.members.length
-  const bins = plan.nBins
-  const values = new Float64Array(total * bins)
-  const step = chunkSize(total)
-  // Kernels with α_s (gg → H) run each member of the varying main set with its own α_s(M_Z).
-  const memberAlphas = memberAlphasFunctions({ ...set.header, memberCount: total })
-  for (let m0 = 0; m0 < total; m0 += step) {
-    const m1 = Math.min(total, m0 + step)
-    const chunk = set.members.slice(m0, m1)
-    const out = roles.varyingRole === 'main'
-      ? evaluatePlan(plan, chunk, roles.second ? [roles.second.members[0]!] : undefined, { memberAlphas: memberAlphas.slice(m0, m1) })
-      : evaluatePlan(plan, [roles.main.members[0]!], chunk)
-    values.set(out, m0 * bins)
-    const [row] = await db.update(t.results).set({ membersDone: m1 }).where(eq(t.results.id, result.id))
-      .returning({ cancel: t.results.cancelRequested })
-    const progress: JobProgress = { done: m1, total }
-    await onProgress?.(progress)
-    if (!row || row.cancel) throw new JobCancelled()
+async function evaluateRange(p: Prepared, m0: number, m1: number, pool: boolean, cancel: CancelWatch, progress: (n: number, done: number) => Promise<void>) {
+  const input = memberInputs(p, m0, m1)
+  const count = m1 - m0
+  if (pool) {
+    const members = sharedMembers(input.varying.members, m0, m1)
+    const step = Math.max(1, Math.ceil(count / (poolThreads() * 4)))
+    let reported = 0
+    try {
+      return await evaluateOnPool({
+        plan: p.plan, members, fixed: input.fixed ? shared(input.fixed) : null, varying: input.role, alphas: input.alphas, step, signal: cancel.signal,
+        onTaskDone: async (done) => {
+          const n = done - reported
+          reported = done
+          await progress(n, done)
+        }
+      })
+    } catch (err) {
+      if (cancel.signal.aborted) throw new JobCancelled()
+      throw err
+    }
+  }
+  const values = new Float64Array(count * p.plan.nBins)
+  const step = chunkSize(count)
+  for (let k = 0; k < count; k += step) {
+    const k1 = Math.min(count, k + step)
+    const members = input.varying.members.slice(m0 + k, m0 + k1)
+    runMembers({ plan: p.plan, members, fixed: input.fixed, varying: input.role, out: values, m0: k, alphas: input.alphas ? { ...input.alphas, first: m0 + k } : null })
+    await progress(k1 - k, k1)
+    cancel.check()
   }
   return values
 }
 
+async function evaluateMembers(db: DB, result: Result, p: Prepared, pool: boolean, onProgress: RunOptions['onProgress'], cancel: CancelWatch) {
+  const total = p.members
+  return evaluateRange(p, 0, total, pool, cancel, async (_n, done) => {
+    const [row] = await db.update(t.results).set({ membersDone: done }).where(eq(t.results.id, result.id))
+      .returning({ cancel: t.results.cancelRequested })
+    const progress: JobProgress = { done, total, phase: 'evaluating members' }
+    await onProgress?.(progress)
+    if (!row || row.cancel) throw new JobCancelled()
+  })
+}
+
 /**
- * The engine's factorisation-scale variation of the central members (κ × ½ and × 2), stored
- * apart from the PDF band; null when a varied scale leaves a set's grid (no scale band then).
+ * One chunk of a run spread over workers (members m0…m1 of the varying set), for the parent step
+ * that combines the chunks (runStudy with `memberValues`). The first chunk to start marks the row
+ * running; each adds its members to the progress. Null when the row has ended or is cancelled
+ * (nothing to compute). Idempotent: running a chunk twice gives the same values.
  */
-function evaluateScaleVariations(spec: StudySpec, set: ErrorSet, partner: ErrorSet | null): ScaleVariationJson | null {
-  const { main, second } = pairRoles(set, partner)
+export async function evaluateRunChunk(db: DB, resultId: string, m0: number, m1: number, o: { pool?: StudyRunOptions['pool'] } = {}): Promise<Float64Array | null> {
+  const [result] = await db.update(t.results)
+    .set({ state: 'running', phase: 'evaluating members', startedAt: sql`coalesce(${t.results.startedAt}, now())` })
+    .where(and(eq(t.results.id, resultId), inArray(t.results.state, ['queued', 'running']), eq(t.results.cancelRequested, false)))
+    .returning()
+  if (!result) return null
+  const p = await prepare(db, result, o.pool)
+  if (m0 < 0 || m1 > p.members || m0 >= m1) throw new RangeError(`Members ${m0}…${m1} are not within the set's ${p.members} members`)
+  const watch = watchCancel(db, t.results, resultId)
   try {
-    const v = scaleVariation(spec, main, main.members[0]!, {
-      ...kernelContextOf(main.header), ...(second ? { second, secondCentral: second.members[0]! } : {})
+    return await evaluateRange(p, m0, m1, usePool(o.pool, m1 - m0, p.plan), watch, async (n) => {
+      const [row] = await db.update(t.results).set({ membersDone: sql`least(${t.results.membersTotal}, ${t.results.membersDone} + ${n})` })
+        .where(eq(t.results.id, resultId)).returning({ cancel: t.results.cancelRequested })
+      if (!row || row.cancel) throw new JobCancelled()
     })
-    const bins = spec.bins.length
-    return {
-      variation: v.variation, label: v.label,
-      kappas: v.kappas,
-      values: [0, 1, 2].map(k => Array.from(v.values.subarray(k * bins, (k + 1) * bins))),
-      nominal: Array.from(v.nominal), up: Array.from(v.up), down: Array.from(v.down)
-    }
   } catch (err) {
-    if (err instanceof RangeError) return null
+    if (isCancel(err, watch)) return null
     throw err
+  } finally {
+    watch.stop()
   }
 }

@@ -97,7 +97,7 @@ export async function latestDoneResults(db: DB, studyId: string, setIds: readonl
 
 /** The live-bar view of a result: state, members done / total and percent. */
 export const progressOf = (r: Result) => ({
-  id: r.id, state: r.state, error: r.error, cancelRequested: r.cancelRequested,
+  id: r.id, state: r.state, phase: r.phase, error: r.error, cancelRequested: r.cancelRequested,
   progress: { done: r.membersDone, total: r.membersTotal, percent: r.membersTotal ? Math.round((100 * r.membersDone) / r.membersTotal) : 0 },
   startedAt: r.startedAt, finishedAt: r.finishedAt
 })

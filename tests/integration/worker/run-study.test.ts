@@ -150,6 +150,23 @@ describe('run-study job on PostgreSQL and Redis', () => {
     expect(Array.from(second)).toEqual(Array.from(first))
   })
 
+  it('names each phase in the progress and the row, in order', async () => {
+    const { set, setId } = await storedSet('replicas', 30)
+    const { result } = await newResult(setId, set, f2Spec(3))
+    const phases: string[] = []
+    const rowPhases: string[] = []
+    const outcome = await runStudy(db, result.id, {
+      onProgress: async (p) => {
+        phases.push(p.phase ?? '')
+        rowPhases.push((await resultRow(result.id)).phase)
+      }
+    })
+    expect(outcome).toMatchObject({ state: 'done' })
+    const order = [...new Set(phases)]
+    expect(order).toEqual(['evaluating members', 'combining', 'storing'])
+    expect(rowPhases).toEqual(phases)
+  })
+
   it('reports progress per chunk and stops at the cancel flag without storing values', async () => {
     const { set, setId } = await storedSet('replicas', 60)
     const { result } = await newResult(setId, set, f2Spec(3))
