@@ -110,7 +110,7 @@ export async function listJobs(db: DB, workspaceId: string, filter: JobFilter = 
   const entries: JobEntry[] = [
     ...runs.map((r): JobEntry => ({
       id: r.id, kind: 'run', state: r.state, progress: r.state === 'done' ? 1 : fraction(r.membersDone, r.membersTotal), phase: r.phase ?? null,
-      title: r.studyName, detail: `${r.setName} ${r.setVersion}, version ${r.version} · ${r.membersTotal} members × ${r.binCount} bins`,
+      title: r.studyName, detail: `${r.membersTotal} members × ${r.binCount} bins`,
       studyId: r.studyId, setId: r.setId, setName: r.setName, setVersion: r.setVersion, version: r.version,
       link: `/studies/${r.studyId}?result=${r.id}`, requestedByName: r.who,
       queuedAt: r.createdAt, startedAt: r.startedAt, finishedAt: r.finishedAt, queuePosition: runPlaces.get(r.id) ?? null,

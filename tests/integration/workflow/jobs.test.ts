@@ -28,7 +28,7 @@ describe('the job list', () => {
     expect(entry).toMatchObject({ studyId: study.body.id, setId: set.id, setName: 'jobs-hessian', version: 1, queuePosition: null, cancelRequested: false })
     expect(entry.setVersion).toEqual(expect.any(String))
     expect(entry).toHaveProperty('phase')
-    expect(entry.detail).toContain('version 1')
+    expect(entry.detail).toMatch(/^\d+ members × 3 bins$/)
     expect(seen.body.counts).toEqual({ queued: 0, running: 0, done: 1, failed: 0, cancelled: 0 })
     expect(new Date(entry.finishedAt).getTime()).toBeGreaterThanOrEqual(new Date(entry.startedAt).getTime())
 
