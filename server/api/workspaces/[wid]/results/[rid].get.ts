@@ -2,6 +2,7 @@ import { RESULT_CAUTION } from '../../../../../shared/export/caution'
 import { prescriptionsFor } from '../../../../../shared/physics/uncertainty/bands'
 import { loadResultScale, reportingChoice, resultBands, resultSetHeader, resultTrail, userNames } from '../../../../domain/results/results'
 import { bandsPage, binPage, binsPage, scalePage } from '../../../../domain/results/page'
+import { cachedBands, cachedScale } from '../../../../domain/results/cache'
 import { publicResult } from '../../../../domain/studies/studies'
 
 // One result version: state and progress (the live bar polls this), and once finished its bands
@@ -22,7 +23,10 @@ export default defineEventHandler(async (event) => {
   let bands = null
   let scale = null
   if (result.state === 'done') {
-    const [all, allScale] = await Promise.all([resultBands(db, result, header, choice.prescription, choice.clPercent), loadResultScale(db, result.id)])
+    const [all, allScale] = await Promise.all([
+      cachedBands(result.id, choice.prescription, choice.clPercent, () => resultBands(db, result, header, choice.prescription, choice.clPercent)),
+      cachedScale(result.id, () => loadResultScale(db, result.id))
+    ])
     bands = bandsPage(all, page)
     scale = allScale ? scalePage(allScale, page) : null
   }
