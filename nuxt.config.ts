@@ -21,6 +21,9 @@ export default defineNuxtConfig({
     appOrigin: process.env.APP_ORIGIN ?? 'http://127.0.0.1:3000'
   },
   nitro: { preset: 'node-server' },
+  // Styles come as cached stylesheets, not inlined into each server-rendered page (the bins
+  // grid's spreadsheet styles alone were ≈ 170 kB of every study page).
+  features: { inlineStyles: false },
   typescript: { strict: true, typeCheck: false },
   app: { head: { title: 'Sheaf', htmlAttrs: { lang: 'en' } } }
 })

@@ -1,7 +1,8 @@
 #!/usr/bin/env bash
 # npm start: install what is missing, start PostgreSQL, Redis and the mail fake on loopback,
-# migrate, seed, build, then serve http://127.0.0.1:3000 with the worker. Ctrl-C stops the app
-# and the worker; `bash scripts/stop.sh` stops the services too. Prints the Outbox link with its
+# migrate, seed, build, then serve http://127.0.0.1:3000 with the worker, both supervised
+# (scripts/supervise.ts restarts either after a crash). Ctrl-C stops the app and the worker;
+# `bash scripts/stop.sh` stops the services too. Prints the Outbox link with its
 # key (.data/outbox-key).
 source "$(dirname "$0")/lib/services.sh"
 cd "$ROOT"
@@ -39,21 +40,24 @@ node_modules/.bin/tsx scripts/seed.ts
 mail_start "$MAIL_PORT" mail-fake
 build_if_needed
 
-pids=()
+# The app and the worker run under scripts/supervise.ts: either one that crashes is restarted with
+# a growing pause (1 s, 2 s, 4 s … 30 s) while the other keeps serving, and the console says so.
+# Ctrl-C (or SIGTERM) stops both.
+supervisor=''
 stop_children() {
   trap - INT TERM EXIT
-  [ ${#pids[@]} -gt 0 ] && kill -TERM "${pids[@]}" 2>/dev/null || true
-  wait "${pids[@]}" 2>/dev/null || true
+  if [ -n "$supervisor" ]; then
+    kill -TERM "$supervisor" 2>/dev/null || true
+    wait "$supervisor" 2>/dev/null || true
+  fi
   log 'app and worker stopped (services keep running; bash scripts/stop.sh stops them)'
 }
 trap stop_children INT TERM EXIT
 
-HOST=127.0.0.1 PORT="$APP_PORT" SHEAF_OUTBOX_KEY="$SHEAF_OUTBOX_KEY" node .output/server/index.mjs &
-pids+=($!)
-node_modules/.bin/tsx workers/index.ts &
-pids+=($!)
+HOST=127.0.0.1 PORT="$APP_PORT" SHEAF_OUTBOX_KEY="$SHEAF_OUTBOX_KEY" node --import tsx scripts/supervise.ts &
+supervisor=$!
 wait_for_health "$APP_ORIGIN"
 log "Sheaf is ready on $APP_ORIGIN. Ctrl-C to stop."
 log "Outbox, the mail of every local account (for you only, do not share the link):"
 log "  $APP_ORIGIN/outbox?key=$SHEAF_OUTBOX_KEY"
-wait -n "${pids[@]}" || true
+wait "$supervisor" || true

@@ -268,6 +268,8 @@ export interface ResultDetail extends ResultRow {
   set: { id: string, name: string, version: string, kind: string, family: string, memberCount: number, confidenceLevelPercent: number }
   spec: StudySpecJson
   requestedByName: string | null
+  /** Which bins `spec.bins`, `bands` and `scaleVariation` hold (0-based offset, count, all bins). */
+  bins?: { offset: number, limit: number, total: number }
   reporting: { prescription: string, clPercent: number, available: string[], setConfidenceLevelPercent: number }
   bands: (BandJson & { prescription: string, clPercent: number, pdf: BandJson, alphas: number[] | null }) | null
   /** Central member at μ_F = κ μ for each κ (values[k]), and the envelope about κ = 1: nominal ± up/down. */
@@ -305,14 +307,17 @@ export function bandsQuery(view: StudyView, kind: string) {
  * The finished results shown on a study's page with their bands for the view's prescription and
  * CL (GET …/results/[rid]?prescription=&cl=, recomputed from the stored members, no new job).
  */
-export async function useStudyResults(workspaceId: Ref<string | null>, study: Ref<StudyDetail | undefined>, view: StudyView, setKinds: Ref<Record<string, string>>) {
+export async function useStudyResults(workspaceId: Ref<string | null>, study: Ref<StudyDetail | undefined>, view: StudyView, setKinds: Ref<Record<string, string>>, binsOffset?: Ref<number>) {
   const done = computed(() => (study.value ? shownResults(study.value, view).filter(r => r.state === 'done') : []))
-  const requests = computed(() => done.value.map(r => ({ id: r.id, query: bandsQuery(view, setKinds.value[r.setId] ?? '') })))
+  // Past a few thousand bins the API sends one page of bins (ResultDetail.bins); binsOffset picks it.
+  const page = computed(() => (binsOffset?.value ? { binsOffset: binsOffset.value } : {}))
+  const requests = computed(() => done.value.map(r => ({ id: r.id, query: { ...bandsQuery(view, setKinds.value[r.setId] ?? ''), ...page.value } })))
   const key = computed(() => `study-results-${study.value?.id}-${JSON.stringify(requests.value)}`)
   const fetcher = useRequestFetch() // forwards the session cookie during the server render
   const { data, pending, error, refresh } = await useAsyncData(key, () =>
     Promise.all(requests.value.map(r => fetcher<ResultDetail>(`/api/workspaces/${workspaceId.value}/results/${r.id}`, { query: r.query }))),
-  // Client-side only: a 10,000-bin result is megabytes of bands, too heavy for the page payload.
+  // Client-side only: the bands stay out of the server-rendered page (the first paint shows the
+  // study and its bins; the bands follow).
   { default: () => [] as ResultDetail[], server: false, lazy: true })
   return { done, details: data, pending, error, refresh }
 }

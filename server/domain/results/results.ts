@@ -16,6 +16,12 @@ export async function loadResultValues(db: DB, resultId: string) {
   return { matrix, scale: row.scale }
 }
 
+/** The scale variation of a finished result alone (not its member values). */
+export async function loadResultScale(db: DB, resultId: string) {
+  const [row] = await db.select({ scale: t.resultValues.scale }).from(t.resultValues).where(eq(t.resultValues.resultId, resultId))
+  return row?.scale ?? null
+}
+
 /** 409 unless the result has finished (bands, matrices and exports need its values). */
 export function assertDone(r: Result) {
   if (r.state !== 'done') {

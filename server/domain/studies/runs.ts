@@ -6,13 +6,14 @@ import { RUN_STUDY_QUEUE, type RunStudyPayload } from '../../../shared/queue/wor
 import { conflictOnUnique, fail } from '../errors'
 import { cancelRow, enqueueRow, type QueueSource } from '../jobs/queue'
 import { insertResultVersions } from '../results/versions'
-import { validateStudy } from './studies'
+import { setsOfWorkspace } from '../sets/library'
+import { runSizeProblem, studySizeProblem } from './check'
 
 /**
  * Makes one new result version per set of `setIds` (all in the study) and queues a job for each,
  * with the result id as the BullMQ job id. 400 for a set the study does not have, 409 when one
- * is already queued or running (or another Run made the same version a moment earlier), 422 when
- * a bin is out of a set's reach, 503 without a queue. The versions and their audit events are
+ * is already queued or running (or another Run made the same version a moment earlier), 413 over
+ * the budgets, 503 without a queue. No per-bin work here (see runInputs). The versions and their audit events are
  * one transaction; the jobs are queued only after it has committed, so a refused or failed
  * request queues nothing. If the queue fails, the versions not yet queued are marked failed
  * (they stay, with their audit events, as the record of what was asked) and the answer is 503.
@@ -25,7 +26,7 @@ export async function startRuns(db: DB, queues: QueueSource, study: Study, setId
   if (foreign.length) {
     fail(400, 'Run only sets the study has', { issues: foreign.map(id => ({ message: `Set ${id} is not one of this study's sets`, path: ['setIds'] })) })
   }
-  const { spec, sets, second } = await validateStudy(db, study.workspaceId, { spec: study.spec, setIds: [...setIds], secondSetId: study.secondSetId })
+  const { spec, sets, second } = await runInputs(db, study, setIds)
   const active = await db.select({ setId: t.results.setId, version: t.results.version }).from(t.results)
     .where(and(eq(t.results.studyId, study.id), inArray(t.results.setId, [...setIds]), inArray(t.results.state, ['queued', 'running'])))
   if (active.length) {
@@ -43,6 +44,27 @@ export async function startRuns(db: DB, queues: QueueSource, study: Study, setId
     }
   }
   return created
+}
+
+/**
+ * What Run needs, without going through the bins one by one: the study's spec was checked in full
+ * when it was saved (structure, the budgets, every bin's reach on each of its sets and its second
+ * set; create and edit both call validateStudy) and a set's grid never changes once uploaded, so
+ * here only the sets are looked up (400 for one not in the workspace) and the budgets, arithmetic
+ * on counts, checked again (413). The per-bin work happens on the worker: a bin the engine still
+ * refuses fails the run there with the engine's located message.
+ */
+async function runInputs(db: DB, study: Study, setIds: readonly string[]) {
+  const spec = study.spec
+  const tooLarge = studySizeProblem(spec)
+  if (tooLarge) throw tooLarge
+  const sets = await setsOfWorkspace(db, study.workspaceId, setIds)
+  const [second] = study.secondSetId ? await setsOfWorkspace(db, study.workspaceId, [study.secondSetId], 'secondSetId') : [null]
+  for (const s of sets) {
+    const runTooLarge = runSizeProblem(spec, s)
+    if (runTooLarge) throw runTooLarge
+  }
+  return { spec, sets, second: second ?? null }
 }
 
 const RESULT_VERSION_UNIQUE = 'results_study_id_set_id_version_unique'

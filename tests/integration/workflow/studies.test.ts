@@ -473,7 +473,7 @@ describe('matrices of very large studies', () => {
     expect(m.body.statusMessage).toMatch(/up to 2000 bins; this result has 2001/)
     const csv = await ws.viewer.client.get(`${api()}/results/${h!.id}/export?format=correlation`)
     expect(csv.status).toBe(413)
-    const bands = await ws.viewer.client.get(`${api()}/results/${h!.id}`)
+    const bands = await ws.viewer.client.get(`${api()}/results/${h!.id}?binsLimit=all`)
     expect(bands.status).toBe(200)
     expect(bands.body.bands.central).toHaveLength(2001)
   })
