@@ -41,7 +41,7 @@ export interface ApiRoute {
   /** Media types of a successful answer other than JSON (downloads). */
   produces?: string[]
   /** Success status when not 200. */
-  status?: 201
+  status?: 201 | 202
 }
 
 const ws = '/api/workspaces/{wid}'
@@ -89,10 +89,22 @@ export const API_ROUTES: ApiRoute[] = [
       { name: 'name', type: 'text', description: 'Name in the library (default: the file header\'s)' }
     ]
   },
+  {
+    method: 'post', path: `${ws}/sets/import`, summary: 'Import a set from a CSV, TSV (gzipped or not) or Parquet table', tag: 'sets', ...W('analyst'), status: 201,
+    multipart: [
+      { name: 'header', type: 'text', description: 'The set header as JSON (setTableHeaderSchema); or send it as the file field `sidecar`' },
+      { name: 'sidecar', type: 'file', description: 'A JSON sidecar file with the set header (instead of the `header` field)' },
+      { name: 'file', type: 'file', required: true, description: 'The table: .csv, .tsv, .csv.gz, .tsv.gz or .parquet, long or wide layout' }
+    ]
+  },
   { method: 'get', path: `${ws}/sets/{sid}`, summary: 'One error set: metadata and header', tag: 'sets', ...W('viewer') },
   { method: 'patch', path: `${ws}/sets/{sid}`, summary: 'Rename an error set', tag: 'sets', ...W('analyst'), body: 'setRenameSchema' },
   { method: 'delete', path: `${ws}/sets/{sid}`, summary: 'Delete an error set no result uses', tag: 'sets', ...W('owner') },
   { method: 'get', path: `${ws}/sets/{sid}/file`, summary: 'Download the .sheafset file as stored', tag: 'sets', ...W('viewer'), produces: ['application/octet-stream'] },
+  {
+    method: 'get', path: `${ws}/sets/{sid}/table`, summary: 'Export the members as a CSV, TSV or Parquet table (long or wide)', tag: 'sets', ...W('viewer'),
+    query: 'setTableExportQuerySchema', produces: ['text/csv', 'text/tab-separated-values', 'application/gzip', 'application/vnd.apache.parquet', 'application/json']
+  },
   { method: 'get', path: `${ws}/sets/{sid}/densities`, summary: 'x·f(x, Q²) of chosen flavours with the set\'s band', tag: 'sets', ...W('viewer'), query: 'densitiesQuerySchema' },
   { method: 'get', path: `${ws}/sets/{sid}/sum-rules`, summary: 'Momentum and valence sum rules of every member', tag: 'sets', ...W('viewer'), query: 'sumRulesQuerySchema' },
   { method: 'post', path: `${ws}/sets/builds`, summary: 'Build an error set from a parametrised fit (queued)', tag: 'sets', ...W('analyst'), body: 'setBuildSchema', status: 201 },
@@ -106,7 +118,7 @@ export const API_ROUTES: ApiRoute[] = [
   { method: 'get', path: `${ws}/studies/{id}`, summary: 'One study with its result versions and measurements', tag: 'studies', ...W('viewer') },
   { method: 'patch', path: `${ws}/studies/{id}`, summary: 'Save edits to a study', tag: 'studies', ...W('analyst'), body: 'studyPatchSchema' },
   { method: 'delete', path: `${ws}/studies/{id}`, summary: 'Delete a study and its results', tag: 'studies', ...W('owner') },
-  { method: 'post', path: `${ws}/studies/{id}/run`, summary: 'Run a study on its sets: one queued result per set', tag: 'studies', ...W('analyst'), body: 'runRequestSchema', status: 201 },
+  { method: 'post', path: `${ws}/studies/{id}/run`, summary: 'Run a study on its sets: one queued result per set', tag: 'studies', ...W('analyst'), body: 'runRequestSchema', status: 202 },
   { method: 'get', path: `${ws}/studies/{id}/comparison`, summary: 'Compare the newest results of several sets', tag: 'studies', ...W('viewer'), query: 'comparisonQuerySchema' },
   { method: 'get', path: `${ws}/studies/{id}/measurements`, summary: 'The measurements of a study', tag: 'measurements', ...W('viewer') },
   {
