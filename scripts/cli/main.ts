@@ -9,6 +9,7 @@ import { bandsVerb, runBands } from './verbs/bands'
 import { computeVerb, runCompute } from './verbs/compute'
 import { evolveVerb, runEvolve } from './verbs/evolve'
 import { membersVerb, runMembers } from './verbs/members'
+import { remoteImportVerb, remoteRunVerb, runRemoteImport, runRemoteRun } from './verbs/remote'
 
 /** A verb: its declaration and the function that runs it. */
 interface Verb {
@@ -20,7 +21,9 @@ const VERBS: Verb[] = [
   { spec: evolveVerb, run: runEvolve },
   { spec: membersVerb, run: runMembers },
   { spec: computeVerb, run: runCompute },
-  { spec: bandsVerb, run: runBands }
+  { spec: bandsVerb, run: runBands },
+  { spec: remoteImportVerb, run: (argv, io) => runRemoteImport(argv, io) },
+  { spec: remoteRunVerb, run: (argv, io) => runRemoteRun(argv, io) }
 ]
 
 function topLevelHelp(): string {

@@ -5,6 +5,8 @@ const SAFE = new Set(['GET', 'HEAD', 'OPTIONS'])
 // by scheme, host and port. The request's own Host is never trusted for this (DNS rebinding).
 export default defineEventHandler((event) => {
   if (SAFE.has(event.method) || !event.path.startsWith('/api/')) return
+  // Authenticated by its Authorization header alone (cookies ignored): nothing to forge.
+  if (hasAuthorization(event)) return
   const origin = getRequestHeader(event, 'origin') ?? refererOrigin(getRequestHeader(event, 'referer'))
   if (!origin) {
     throw createError({ statusCode: 403, statusMessage: 'Request refused: no Origin or Referer header on a state-changing request' })

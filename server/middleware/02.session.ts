@@ -1,6 +1,8 @@
-// Reads the lucia session cookie on API requests and puts user/session on event.context.
+// Reads the lucia session cookie on API requests and puts user/session on event.context; a
+// request with an Authorization header is authenticated by its API token instead (utils/auth.ts).
 export default defineEventHandler(async (event) => {
   if (!event.path.startsWith('/api/')) return
+  if (hasAuthorization(event)) return authenticateBearer(event)
   const lucia = useLucia()
   const sessionId = getCookie(event, lucia.sessionCookieName) ?? null
   event.context.user = null

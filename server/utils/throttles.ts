@@ -70,3 +70,35 @@ export async function clearSigninFailures(event: H3Event, email: string): Promis
 export async function mayMail(email: string): Promise<boolean> {
   return (await takeAttempt(useRedis(), [{ rule: MAIL_RULE, id: email }])).allowed
 }
+
+// API tokens (our numbers): 600 requests per token per minute, and 30 refused tokens per client
+// address per 15 minutes (a wrong, revoked or expired secret), after which that address gets
+// 429 for every Bearer request until the window ends — guessing a 256-bit secret is hopeless
+// anyway, the limit keeps the database from serving the attempts.
+export const TOKEN_RULES = {
+  use: { prefix: 'throttle:token:use', limit: 600, windowSeconds: 60 },
+  refused: { prefix: 'throttle:token:refused', limit: 30, windowSeconds: 900 }
+} as const satisfies Record<string, ThrottleRule>
+
+function tooMany(event: H3Event, seconds: number, what: string): never {
+  setResponseHeader(event, 'Retry-After', seconds)
+  throw createError({
+    statusCode: 429,
+    statusMessage: `Too many ${what}; try again in ${waitText(seconds)}`,
+    data: { retryAfterSeconds: seconds }
+  })
+}
+
+/** Before a Bearer secret is looked up: 429 when this address had too many refused tokens. */
+export async function countTokenLookup(event: H3Event): Promise<void> {
+  const key = { rule: TOKEN_RULES.refused, id: clientAddress(event) }
+  const verdict = await takeAttempt(useRedis(), [key])
+  if (!verdict.allowed) tooMany(event, verdict.retryAfterSeconds, 'refused API tokens from this address')
+}
+
+/** The secret was good: take the lookup back from the address's refusals, count the token's use. */
+export async function countTokenUse(event: H3Event, tokenId: string): Promise<void> {
+  await giveBackAttempt(useRedis(), [], [{ rule: TOKEN_RULES.refused, id: clientAddress(event) }])
+  const verdict = await takeAttempt(useRedis(), [{ rule: TOKEN_RULES.use, id: tokenId }])
+  if (!verdict.allowed) tooMany(event, verdict.retryAfterSeconds, 'requests with this API token')
+}

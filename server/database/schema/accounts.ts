@@ -71,6 +71,26 @@ export const authTokens = pgTable('auth_tokens', {
   index('auth_tokens_user_id_idx').on(t.userId)
 ])
 
+// Personal API tokens: one workspace, a role no higher than the owner's there, an expiry. Only the
+// SHA-256 of the secret is stored; `prefix` (the first characters) lets the owner recognise it.
+export const apiTokens = pgTable('api_tokens', {
+  id: uuid().primaryKey().defaultRandom(),
+  userId: uuid().notNull().references(() => users.id, { onDelete: 'cascade' }),
+  workspaceId: uuid().notNull().references(() => workspaces.id, { onDelete: 'cascade' }),
+  name: text().notNull(),
+  role: roleEnum().notNull(),
+  tokenHash: text().notNull(),
+  prefix: text().notNull(),
+  expiresAt: timestamp({ withTimezone: true }).notNull(),
+  lastUsedAt: timestamp({ withTimezone: true }),
+  revokedAt: timestamp({ withTimezone: true }),
+  createdAt: timestamp({ withTimezone: true }).notNull().defaultNow()
+}, t => [
+  uniqueIndex('api_tokens_token_hash_idx').on(t.tokenHash),
+  index('api_tokens_user_id_idx').on(t.userId),
+  index('api_tokens_workspace_id_idx').on(t.workspaceId)
+])
+
 // Filled by the local fake SMTP server (scripts/mail-fake.ts) only.
 export const mailOutbox = pgTable('mail_outbox', {
   id: uuid().primaryKey().defaultRandom(),
@@ -124,6 +144,11 @@ export const authTokensRelations = relations(authTokens, ({ one }) => ({
   user: one(users, { fields: [authTokens.userId], references: [users.id] })
 }))
 
+export const apiTokensRelations = relations(apiTokens, ({ one }) => ({
+  user: one(users, { fields: [apiTokens.userId], references: [users.id] }),
+  workspace: one(workspaces, { fields: [apiTokens.workspaceId], references: [workspaces.id] })
+}))
+
 export const auditEventsRelations = relations(auditEvents, ({ one }) => ({
   workspace: one(workspaces, { fields: [auditEvents.workspaceId], references: [workspaces.id] })
 }))
@@ -134,6 +159,7 @@ export type Workspace = typeof workspaces.$inferSelect
 export type Membership = typeof memberships.$inferSelect
 export type Invitation = typeof invitations.$inferSelect
 export type AuthToken = typeof authTokens.$inferSelect
+export type ApiToken = typeof apiTokens.$inferSelect
 export type MailMessage = typeof mailOutbox.$inferSelect
 export type AuditEvent = typeof auditEvents.$inferSelect
 export type NewAuditEvent = typeof auditEvents.$inferInsert

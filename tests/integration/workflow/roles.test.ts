@@ -45,6 +45,8 @@ const routes: WorkspaceRoute[] = [
   { method: 'PATCH', path: set, body: () => ({ name: 'renamed in the matrix' }), minRole: 'analyst' },
   { method: 'DELETE', path: set, minRole: 'owner', tryAllowed: false },
   { method: 'GET', path: w => `${set(w)}/file`, minRole: 'viewer' },
+  { method: 'POST', path: w => `${base(w)}/sets/import`, minRole: 'analyst', tryAllowed: false },
+  { method: 'GET', path: w => `${set(w)}/table?format=csv`, minRole: 'viewer' },
   { method: 'GET', path: w => `${set(w)}/densities?q2=10&flavours=21,uv`, minRole: 'viewer' },
   { method: 'GET', path: w => `${set(w)}/sum-rules?q2=10`, minRole: 'viewer' },
   { method: 'POST', path: w => `${base(w)}/sets/builds`, body: () => ({ input: {} }), minRole: 'analyst', tryAllowed: false },
