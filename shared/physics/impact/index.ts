@@ -1,0 +1,7 @@
+/**
+ * What a new measurement does to a set (see shared/physics/README.md, section 21): per-bin
+ * K-factors, Bayesian reweighting of replica sets and its unweighting, Hessian profiling, and
+ * sensitivity maps. Pure functions over member-value matrices and error sets.
+ */
+
+export { type KFactors, type KFactorBands, checkKFactors, applyKFactors, kFactorErrors, kFactorBands } from './k-factors'
