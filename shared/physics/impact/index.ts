@@ -5,3 +5,8 @@
  */
 
 export { type KFactors, type KFactorBands, checkKFactors, applyKFactors, kFactorErrors, kFactorBands } from './k-factors'
+export { type DerivedSetInfo, derivedHeader } from './derived-set'
+export {
+  type HessianKind, type EigenvectorModel, type ProfilingOptions, type ProfilingResult, eigenvectorModel, evaluateModel,
+  profile, profiledMembers, profiledSet
+} from './profiling'
