@@ -5,7 +5,12 @@
  */
 
 export { type KFactors, type KFactorBands, checkKFactors, applyKFactors, kFactorErrors, kFactorBands } from './k-factors'
+export {
+  type WeightForm, type ReweightOptions, type ReweightResult, WEIGHT_FORMS, replicaChi2, reweightingWeights,
+  effectiveReplicas, weightedMoments, weightedBand, chi2Profile, reweight
+} from './reweighting'
 export { type DerivedSetInfo, derivedHeader } from './derived-set'
+export { type UnweightingOptions, unweightedCopies, unweightedMatrix, unweightingErrors, unweightedSet } from './unweighting'
 export {
   type HessianKind, type EigenvectorModel, type ProfilingOptions, type ProfilingResult, eigenvectorModel, evaluateModel,
   profile, profiledMembers, profiledSet

@@ -4,6 +4,8 @@
 // Recognition and Machine Learning" (Springer 2006), §2.3.3, eqs. (2.113)–(2.117):
 // Σ_post = (Σ⁻¹ + AᵀC⁻¹A)⁻¹, μ_post = Σ_post AᵀC⁻¹ (D − c).
 import { EigenvalueDecomposition, inverse, Matrix } from 'ml-matrix'
+import { normalStream } from '../../../../shared/physics/random'
+import { memberValuesFromRows, type MemberValues } from '../../../../shared/physics/uncertainty'
 
 export const PRIOR = new Matrix([[1.0, 0.3, -0.2], [0.3, 0.5, 0.1], [-0.2, 0.1, 0.8]])
 export const A = new Matrix([[2, 0.5, 0], [1, -1, 0.3], [0, 0.7, 1.5], [0.4, 0.2, -0.6]])
@@ -53,4 +55,16 @@ export function priorFactor(): number[][] {
     }
   }
   return l
+}
+
+/** N replicas of the toy prior p = Lξ (ξ from the 'synthetic' stream, seed 2026), as parameter and prediction matrices. */
+export function toyReplicas(n: number, seed = 2026): { parameters: MemberValues, predictions: MemberValues } {
+  const l = priorFactor()
+  const xi = normalStream(seed, { purpose: 'synthetic', index: 11 })
+  const p: number[][] = [[0, 0, 0]]
+  for (let r = 0; r < n; r++) {
+    const z = [xi.next(), xi.next(), xi.next()]
+    p.push(l.map(row => row.reduce((s, v, j) => s + v * z[j]!, 0)))
+  }
+  return { parameters: memberValuesFromRows(p), predictions: memberValuesFromRows(p.map(predict)) }
 }
