@@ -15,3 +15,4 @@ export {
   type HessianKind, type EigenvectorModel, type ProfilingOptions, type ProfilingResult, eigenvectorModel, evaluateModel,
   profile, profiledMembers, profiledSet
 } from './profiling'
+export { type CorrelationMap, densityValues, correlationMap, predictionErrors, sensitivityMap } from './sensitivity'
