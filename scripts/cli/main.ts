@@ -8,7 +8,11 @@ import type { CliIo } from './io'
 import { bandsVerb, runBands } from './verbs/bands'
 import { computeVerb, runCompute } from './verbs/compute'
 import { evolveVerb, runEvolve } from './verbs/evolve'
+import { kfactorVerb, runKfactor } from './verbs/kfactor'
 import { membersVerb, runMembers } from './verbs/members'
+import { profileVerb, runProfile } from './verbs/profile'
+import { reweightVerb, runReweight } from './verbs/reweight'
+import { runSensitivity, sensitivityVerb } from './verbs/sensitivity'
 
 /** A verb: its declaration and the function that runs it. */
 interface Verb {
@@ -20,7 +24,11 @@ const VERBS: Verb[] = [
   { spec: evolveVerb, run: runEvolve },
   { spec: membersVerb, run: runMembers },
   { spec: computeVerb, run: runCompute },
-  { spec: bandsVerb, run: runBands }
+  { spec: bandsVerb, run: runBands },
+  { spec: kfactorVerb, run: runKfactor },
+  { spec: reweightVerb, run: runReweight },
+  { spec: profileVerb, run: runProfile },
+  { spec: sensitivityVerb, run: runSensitivity }
 ]
 
 function topLevelHelp(): string {
