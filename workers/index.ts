@@ -5,8 +5,9 @@ import IORedis from 'ioredis'
 import { createDB } from '../server/database/client'
 import { logText } from '../server/domain/log-text'
 import { readSettings } from '../server/domain/settings'
-import { BUILD_SET_QUEUE, RUN_STUDY_QUEUE } from '../shared/queue/workflow'
+import { BUILD_SET_QUEUE, IMPACT_UPDATE_QUEUE, RUN_STUDY_QUEUE } from '../shared/queue/workflow'
 import { buildSetJob, runStudyJob } from './handlers'
+import { impactUpdateJob } from './impact-update'
 
 const settings = readSettings()
 const db = createDB(settings.databaseUrl, 4)
@@ -14,7 +15,9 @@ const connection = new IORedis(settings.redisUrl, { maxRetriesPerRequest: null }
 
 const workers = [
   new Worker(RUN_STUDY_QUEUE, job => runStudyJob(db, settings, job), { connection, concurrency: 2 }),
-  new Worker(BUILD_SET_QUEUE, job => buildSetJob(db, settings, job), { connection, concurrency: 1 })
+  new Worker(BUILD_SET_QUEUE, job => buildSetJob(db, settings, job), { connection, concurrency: 1 }),
+  // set updates by a measurement (workers/impact-update.ts)
+  new Worker(IMPACT_UPDATE_QUEUE, job => impactUpdateJob(db, job), { connection, concurrency: 1 })
 ]
 
 for (const w of workers) {
