@@ -66,7 +66,8 @@ export function shrinkageCsv(rows: readonly ShrinkageRow[], provenance: readonly
  */
 export function beforeAfterFigure(s: BeforeAfter & { labels?: string[], parentName: string, updatedName: string, unit?: string }): Figure {
   const rows = shrinkageRows(s, s.labels)
-  const x = rows.map(r => r.label)
+  // Bin numbers on the axis: labels need not be unique (a rapidity cut shared by several mass bins).
+  const x = rows.map(r => String(r.bin))
   const ratio = (v: number, r: ShrinkageRow) => (r.before !== 0 ? v / r.before : null)
   const series = (name: string, colour: string, central: number[], plus: number[], minus: number[], yaxis: string, offset: number, legend: boolean): PlotTrace => ({
     type: 'scatter', mode: 'markers', name, x, y: central, xaxis: 'x', yaxis, showlegend: legend, legendgroup: name,
@@ -84,7 +85,11 @@ export function beforeAfterFigure(s: BeforeAfter & { labels?: string[], parentNa
   ]
   const layout = houseLayout('Before and after the update')
   layout.xaxis = houseAxis({ label: 'bin' }, { type: 'category', anchor: 'y2' })
-  layout.yaxis = houseAxis({ label: 'prediction', unit: s.unit && s.unit !== '1' ? s.unit : undefined }, { domain: [0.38, 1] })
+  const values = rows.flatMap(r => [r.before, r.after, r.data])
+  const lo = Math.min(...values)
+  // A spectrum falling over decades is read on a log axis (common practice).
+  const log = lo > 0 && Math.max(...values) / lo > 100
+  layout.yaxis = houseAxis({ label: 'prediction', unit: s.unit && s.unit !== '1' ? s.unit : undefined, log }, { domain: [0.38, 1] })
   layout.yaxis2 = houseAxis({ label: 'ratio to parent' }, { domain: [0, 0.3] })
   return { data, layout }
 }

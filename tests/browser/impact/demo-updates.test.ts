@@ -83,7 +83,7 @@ describe('updating the demo sets by the pseudo-measurement', () => {
 
     // The saved sets in the library, each with its provenance and before/after view.
     for (const row of [rw, pf]) {
-      await page.goto(page.url().replace(/\/studies\/.*/, `/sets/${row.setId}`))
+      await page.goto(`${new URL(page.url()).origin}/sets/${row.setId}`)
       const origin = page.getByTestId('impact-set-origin')
       await origin.waitFor({ timeout: 20_000 })
       expect(await origin.textContent()).toContain(row.summary!.parent.name)

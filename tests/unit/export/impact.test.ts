@@ -57,3 +57,12 @@ describe('figures', () => {
     expect(() => sensitivityLines(grid, [5])).toThrow(/Bin 6 is not in the map/)
   })
 })
+
+describe('beforeAfterFigure axes', () => {
+  it('numbers the bins even when labels repeat, and reads a spectrum over decades on a log axis', () => {
+    const f = beforeAfterFigure({ data: [100, 0.5], before: band([100, 0.4], [1, 0.1], [1, 0.1]), after: band([100, 0.4], [1, 0.1], [1, 0.1]), labels: ['|y| < 2.5', '|y| < 2.5'], parentName: 'P', updatedName: 'Q' })
+    expect(f.data[0]!.x).toEqual(['1', '2'])
+    expect((f.layout.yaxis as { type: string }).type).toBe('log')
+    expect((beforeAfterFigure({ ...update, parentName: 'P', updatedName: 'Q' }).layout.yaxis as { type: string }).type).toBe('linear')
+  })
+})
