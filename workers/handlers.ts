@@ -21,7 +21,8 @@ export const attemptOf = (job: Job): Attempt => ({
   label: `${job.queueName} ${job.id}`
 })
 
-async function unrecoverableOnFinal<T>(work: Promise<T>): Promise<T> {
+/** Exported for the handlers in their own files (workers/impact-update.ts). */
+export async function unrecoverableOnFinal<T>(work: Promise<T>): Promise<T> {
   try {
     return await work
   } catch (err) {

@@ -10,8 +10,9 @@ import { createDB } from '../server/database/client'
 import { logText } from '../server/domain/log-text'
 import { readSettings } from '../server/domain/settings'
 import { closePool, poolThreads, warmPool } from '../server/domain/studies/pool'
-import { BUILD_SET_QUEUE, RUN_CHUNK_QUEUE, RUN_STUDY_QUEUE } from '../shared/queue/workflow'
+import { BUILD_SET_QUEUE, IMPACT_UPDATE_QUEUE, RUN_CHUNK_QUEUE, RUN_STUDY_QUEUE } from '../shared/queue/workflow'
 import { buildSetJob, runChunkJob, runStudyJob, WORKER_NAME } from './handlers'
+import { impactUpdateJob } from './impact-update'
 
 /**
  * Stalled-job recovery (see DEVELOPERS.md, "Workers on many machines"): a worker renews its
@@ -37,7 +38,9 @@ void warmPool().then(() => console.log(`[worker] evaluation pool: ${poolThreads(
 const workers = [
   new Worker(RUN_STUDY_QUEUE, job => runStudyJob(db, settings, job), { ...common, concurrency }),
   new Worker(RUN_CHUNK_QUEUE, job => runChunkJob(db, job), { ...common, concurrency }),
-  new Worker(BUILD_SET_QUEUE, job => buildSetJob(db, settings, job), { ...common, concurrency: 1 })
+  new Worker(BUILD_SET_QUEUE, job => buildSetJob(db, settings, job), { ...common, concurrency: 1 }),
+  // set updates by a measurement (workers/impact-update.ts)
+  new Worker(IMPACT_UPDATE_QUEUE, job => impactUpdateJob(db, job), { ...common, concurrency: 1 })
 ]
 
 for (const w of workers) {

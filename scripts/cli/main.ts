@@ -8,8 +8,12 @@ import type { CliIo } from './io'
 import { bandsVerb, runBands } from './verbs/bands'
 import { computeVerb, runCompute } from './verbs/compute'
 import { evolveVerb, runEvolve } from './verbs/evolve'
+import { kfactorVerb, runKfactor } from './verbs/kfactor'
 import { membersVerb, runMembers } from './verbs/members'
 import { remoteImportVerb, remoteRunVerb, runRemoteImport, runRemoteRun } from './verbs/remote'
+import { profileVerb, runProfile } from './verbs/profile'
+import { reweightVerb, runReweight } from './verbs/reweight'
+import { runSensitivity, sensitivityVerb } from './verbs/sensitivity'
 
 /** A verb: its declaration and the function that runs it. */
 interface Verb {
@@ -23,7 +27,11 @@ const VERBS: Verb[] = [
   { spec: computeVerb, run: runCompute },
   { spec: bandsVerb, run: runBands },
   { spec: remoteImportVerb, run: (argv, io) => runRemoteImport(argv, io) },
-  { spec: remoteRunVerb, run: (argv, io) => runRemoteRun(argv, io) }
+  { spec: remoteRunVerb, run: (argv, io) => runRemoteRun(argv, io) },
+  { spec: kfactorVerb, run: runKfactor },
+  { spec: reweightVerb, run: runReweight },
+  { spec: profileVerb, run: runProfile },
+  { spec: sensitivityVerb, run: runSensitivity }
 ]
 
 function topLevelHelp(): string {

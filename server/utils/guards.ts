@@ -7,6 +7,7 @@ import {
 } from '../domain/lookups'
 import type { TokenCaller } from '../domain/accounts/api-tokens'
 import { roleAtLeast, type Role } from '../../shared/utils/roles'
+import { findImpactUpdate } from '../domain/impact/updates'
 
 export type SessionUser = { id: string, email: string, name: string, emailVerified: boolean }
 
@@ -83,4 +84,12 @@ export async function requireMeasurement(event: H3Event, minRole: Role) {
   const access = await requireStudy(event, minRole)
   const measurement = await findMeasurement(useDB(), access.study.id, uuidParam(event, 'mid', 'Measurement'))
   return { ...access, measurement }
+}
+
+// ---- set updates by a measurement (server/domain/impact)
+/** …/studies/[id]/updates/[uid]: an update of a set by a measurement, of a study of the workspace. */
+export async function requireImpactUpdate(event: H3Event, minRole: Role) {
+  const access = await requireStudy(event, minRole)
+  const update = await findImpactUpdate(useDB(), access.study.id, uuidParam(event, 'uid', 'Set update'))
+  return { ...access, update }
 }

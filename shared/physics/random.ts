@@ -30,7 +30,9 @@ export const RANDOM_PURPOSES = {
   /** TOY replica sets (sets/toy.ts); index 0. */
   'toy-sets': 2,
   /** Made-up data for benchmarks, tests and examples, never part of a stored result; index free. */
-  'synthetic': 3
+  'synthetic': 3,
+  /** Unweighting a reweighted replica set (impact/unweighting.ts); index 0. */
+  'unweighting': 4
 } as const
 
 /** A purpose of {@link RANDOM_PURPOSES}. */

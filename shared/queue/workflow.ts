@@ -39,6 +39,17 @@ export const buildSetPayload = z.object({
 })
 export type BuildSetPayload = z.infer<typeof buildSetPayload>
 
+// ---- set updates by a measurement (reweighting, profiling): handler in workers/impact-update.ts
+/** Update a set by a measurement and save the derived set (an impact_updates row). */
+export const IMPACT_UPDATE_QUEUE = 'impact-update'
+
+export const impactUpdatePayload = z.object({
+  /** The `impact_updates` row this job fills. */
+  updateId: z.uuid()
+})
+export type ImpactUpdatePayload = z.infer<typeof impactUpdatePayload>
+// ---- end of set updates
+
 /** A build request as stored in set_builds.request and read back by the build-set job. */
 export interface SetBuildRequest {
   /** The parametrised input (or nuclear modification) document, members and grid overrides applied. */

@@ -2,3 +2,5 @@
 export * from './accounts'
 export * from './workflow'
 export type * from './json'
+// Set updates by a measurement (reweighting, profiling): schema/impact.ts.
+export * from './impact'
