@@ -7,10 +7,14 @@ import * as accountSchemas from '../../../shared/utils/account-schemas'
 import * as tokenSchemas from '../../../shared/utils/token-schemas'
 import * as workflowSchemas from '../../../shared/utils/workflow-schemas'
 import * as tableSchemas from '../../../shared/utils/set-table-schemas'
+import * as impactSchemas from '../../../shared/utils/impact-schemas'
+import * as jobSchemas from '../../../shared/utils/job-schemas'
+import * as resultSchemas from '../../../shared/utils/result-schemas'
+import * as studyExportSchemas from '../../../shared/utils/study-export-schema'
 import type { Role } from '../../../shared/utils/roles'
 
 /** Every zod schema a route may name, by its exported name. */
-export const API_SCHEMAS = { ...accountSchemas, ...tokenSchemas, ...workflowSchemas, ...tableSchemas }
+export const API_SCHEMAS = { ...accountSchemas, ...tokenSchemas, ...workflowSchemas, ...tableSchemas, ...impactSchemas, ...studyExportSchemas, ...jobSchemas, ...resultSchemas }
 export type SchemaName = {
   [K in keyof typeof API_SCHEMAS]: (typeof API_SCHEMAS)[K] extends { safeParse: unknown } ? K : never
 }[keyof typeof API_SCHEMAS]
@@ -68,6 +72,7 @@ export const API_ROUTES: ApiRoute[] = [
   { method: 'get', path: '/api/health', summary: 'Health check: 200 when PostgreSQL and Redis answer', tag: 'service', access: 'public' },
   { method: 'get', path: '/api/outbox', summary: 'Mail caught by the local mail fake (only while it is in use)', tag: 'service', access: 'outbox' },
   { method: 'get', path: '/api/openapi.json', summary: 'This description (OpenAPI 3.1)', tag: 'service', access: 'public' },
+  { method: 'get', path: '/api/samples/{folder}/{file}', summary: 'Download one of the sample files (sets, bins, measurements) for a first run', tag: 'service', access: 'session', produces: ['text/csv', 'application/json', 'application/octet-stream'] },
 
   // Workspaces and members
   { method: 'get', path: '/api/workspaces', summary: 'Your workspaces', tag: 'workspaces', access: 'session' },
@@ -78,7 +83,7 @@ export const API_ROUTES: ApiRoute[] = [
   { method: 'patch', path: `${ws}/members/{uid}`, summary: 'Change a member\'s role', tag: 'members', ...W('owner'), body: 'rolePatchSchema' },
   { method: 'delete', path: `${ws}/members/{uid}`, summary: 'Remove a member (owners) or leave (yourself, browser session only)', tag: 'members', ...W('owner') },
   { method: 'delete', path: `${ws}/invitations/{iid}`, summary: 'Revoke a pending invitation', tag: 'members', ...W('owner') },
-  { method: 'get', path: `${ws}/jobs`, summary: 'Queued, running and finished work of the workspace', tag: 'workspaces', ...W('viewer') },
+  { method: 'get', path: `${ws}/jobs`, summary: 'Queued, running and finished work of the workspace (filters: kind, state, who, when)', tag: 'workspaces', ...W('viewer'), query: 'jobsQuerySchema' },
 
   // Error sets
   { method: 'get', path: `${ws}/sets`, summary: 'The error-set library and the builds in progress', tag: 'sets', ...W('viewer') },
@@ -110,6 +115,9 @@ export const API_ROUTES: ApiRoute[] = [
   { method: 'post', path: `${ws}/sets/builds`, summary: 'Build an error set from a parametrised fit (queued)', tag: 'sets', ...W('analyst'), body: 'setBuildSchema', status: 201 },
   { method: 'get', path: `${ws}/sets/builds/{bid}`, summary: 'A set build\'s state and progress', tag: 'sets', ...W('viewer') },
   { method: 'post', path: `${ws}/sets/builds/{bid}/cancel`, summary: 'Cancel a queued or running set build', tag: 'sets', ...W('analyst') },
+  { method: 'post', path: `${ws}/sets/builds/{bid}/rerun`, summary: 'Run a failed or cancelled set build again (queued)', tag: 'sets', ...W('analyst'), status: 202 },
+  { method: 'post', path: `${ws}/sets/examples`, summary: 'Add the example TOY sets to the library (once; 201)', tag: 'sets', ...W('analyst'), status: 201 },
+  { method: 'get', path: `${ws}/sets/{sid}/update`, summary: 'The set update (reweighting or profiling) that saved this set, or null', tag: 'updates', ...W('viewer') },
 
   // Studies
   { method: 'get', path: `${ws}/studies`, summary: 'Studies with their newest result per set', tag: 'studies', ...W('viewer') },
@@ -120,6 +128,12 @@ export const API_ROUTES: ApiRoute[] = [
   { method: 'delete', path: `${ws}/studies/{id}`, summary: 'Delete a study and its results', tag: 'studies', ...W('owner') },
   { method: 'post', path: `${ws}/studies/{id}/run`, summary: 'Run a study on its sets: one queued result per set', tag: 'studies', ...W('analyst'), body: 'runRequestSchema', status: 202 },
   { method: 'get', path: `${ws}/studies/{id}/comparison`, summary: 'Compare the newest results of several sets', tag: 'studies', ...W('viewer'), query: 'comparisonQuerySchema' },
+  { method: 'get', path: `${ws}/studies/{id}/export`, summary: 'All of a study\'s sets side by side: CSV, JSON or LaTeX', tag: 'studies', ...W('viewer'), query: 'studyExportQuerySchema', produces: ['text/csv', 'application/json', 'application/x-latex'] },
+  { method: 'get', path: `${ws}/studies/{id}/sensitivity`, summary: 'Correlation (cos φ) and sensitivity of each bin to a density', tag: 'updates', ...W('viewer'), query: 'sensitivityQuerySchema' },
+  { method: 'get', path: `${ws}/studies/{id}/updates`, summary: 'The study\'s set updates by a measurement, newest first', tag: 'updates', ...W('viewer') },
+  { method: 'post', path: `${ws}/studies/{id}/updates`, summary: 'Update a set by a measurement: reweighting (replicas) or profiling (Hessian), queued', tag: 'updates', ...W('analyst'), body: 'impactUpdateSchema', status: 202 },
+  { method: 'get', path: `${ws}/studies/{id}/updates/{uid}`, summary: 'One set update with its progress and summary', tag: 'updates', ...W('viewer') },
+  { method: 'post', path: `${ws}/studies/{id}/updates/{uid}/cancel`, summary: 'Cancel a queued or running set update', tag: 'updates', ...W('analyst') },
   { method: 'get', path: `${ws}/studies/{id}/measurements`, summary: 'The measurements of a study', tag: 'measurements', ...W('viewer') },
   {
     method: 'post', path: `${ws}/studies/{id}/measurements`, summary: 'Upload a measurement (JSON body measurementJsonSchema, or multipart)', tag: 'measurements', ...W('analyst'), body: 'measurementJsonSchema', status: 201,
@@ -135,7 +149,7 @@ export const API_ROUTES: ApiRoute[] = [
   { method: 'get', path: `${ws}/studies/{id}/measurements/{mid}/chi2`, summary: 'χ² of the measurement against the newest results', tag: 'measurements', ...W('viewer'), query: 'chi2QuerySchema' },
 
   // Results
-  { method: 'get', path: `${ws}/results/{rid}`, summary: 'One result: state, progress and, once finished, its bands', tag: 'results', ...W('viewer'), query: 'bandsQuerySchema' },
+  { method: 'get', path: `${ws}/results/{rid}`, summary: 'One result: state, progress and, once finished, its bands (bins paged past 2000: binsOffset, binsLimit)', tag: 'results', ...W('viewer'), query: 'resultQuerySchema' },
   { method: 'delete', path: `${ws}/results/{rid}`, summary: 'Delete a result version', tag: 'results', ...W('analyst') },
   { method: 'get', path: `${ws}/results/{rid}/progress`, summary: 'State and progress only (cheap to poll)', tag: 'results', ...W('viewer') },
   { method: 'get', path: `${ws}/results/{rid}/events`, summary: 'Server-sent progress events', tag: 'results', ...W('viewer'), produces: ['text/event-stream'] },
