@@ -40,7 +40,6 @@ const fit = (file: string) => JSON.parse(readFileSync(`${root}samples/fits/${fil
 const sample = (path: string) => readFileSync(`${root}samples/${path}`, 'utf8')
 
 let workspaceId: string
-let ms: { first: number, second: number }
 let before: unknown
 let after: unknown
 
@@ -81,15 +80,13 @@ beforeAll(async () => {
   before = await snapshot()
   const second = seed()
   after = await snapshot()
-  ms = { first, second }
   console.log(`[seed-demo] first run ${Math.round(first)} ms (building unless another test seeded first), second run ${Math.round(second)} ms`)
 }, 180_000)
 
 describe('demo seed', () => {
-  it('is idempotent: a second run adds, changes and recomputes nothing, and is quick', () => {
+  it('is idempotent: a second run adds, changes and recomputes nothing', () => {
+    // Its wall time is printed above; timings belong in the benchmarks, not in a test.
     expect(after).toEqual(before)
-    // tsx start-up and a few queries; generous for a shared two-core machine.
-    expect(ms.second).toBeLessThan(4000)
   })
 
   it('builds the three invented families with the engine from samples/fits', async () => {
