@@ -61,7 +61,7 @@ describe('accounts in the browser', () => {
     await page.getByRole('button', { name: 'Create workspace' }).click()
     await page.getByRole('heading', { name: 'Kestrel test beam group' }).waitFor()
     for (const empty of ['No studies yet', 'No error sets yet', 'No jobs yet']) {
-      expect(await page.getByText(empty).isVisible(), empty).toBe(true)
+      expect(await page.getByText(empty, { exact: true }).isVisible(), empty).toBe(true)
     }
     for (const name of ['Studies', 'Error sets', 'Jobs', 'Members']) {
       expect(await nav(page, name).isVisible(), name).toBe(true)

@@ -87,7 +87,7 @@ describe('an analyst runs a study in the browser', () => {
     await page.keyboard.press('ArrowUp')
     await page.keyboard.type('1e-7')
     await page.keyboard.press('Enter')
-    await expect.poll(() => messages.textContent(), { timeout: 10_000 }).toContain('x = 1e-7 (at x = 1e-7, Q² = 10) is below the set\'s smallest x node')
+    await expect.poll(() => messages.textContent(), { timeout: 10_000 }).toContain('x = 1e-7 (bin as entered: x = 1e-7, Q² = 10 GeV²) is below the set\'s smallest x node 0.00001')
     expect(await cell().getAttribute('class')).toContain('htInvalid')
     await shot(page, 'study-grid-reach')
     await page.getByRole('button', { name: 'Discard' }).click()
