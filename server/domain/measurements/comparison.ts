@@ -4,7 +4,7 @@ import { tables as t } from '../../database/client'
 import type { Result, Study } from '../../database/schema'
 import type { SetHeader } from '../../../shared/physics/types'
 import {
-  bandEnvelope, clScaleFactor, compareWithSet, makeBands, poolSets, scaleBands, type MemberValues
+  bandEnvelope, clScaleFactor, compareWithSet, intervalRule, poolSets, replicaMedianInterval, scaleBands, type MemberValues
 } from '../../../shared/physics/uncertainty'
 import { fail } from '../errors'
 import { bandToJson } from '../../../shared/physics/uncertainty/band'
@@ -65,15 +65,16 @@ export function combineSets(sets: ComparedSet[], study: Study, clPercent: number
   })
   const envelope = bandEnvelope(perSet.map(p => p.band))
   const pooled = poolSets(sets.map(s => ({ matrix: s.matrix, kind: s.header.kind, clFrom: s.header.confidenceLevelPercent, alphasMembers: s.header.alphasMembers })), { replicasPerSet, seed })
-  // The pool describes 68% CL; other CLs by the Gaussian factor (common practice).
+  // The pool's replicas describe 68 % CL: its standard deviation goes to other CLs by the Gaussian
+  // factor (common practice); its interval is read from the pool's percentiles at the CL itself.
   const factor = clScaleFactor(68, clPercent)
-  const interval = makeBands(pooled.interval.central, pooled.interval.plus.map(v => v * factor), pooled.interval.minus.map(v => v * factor))
+  const interval = replicaMedianInterval(pooled.replicas, clPercent)
   return {
     clPercent,
     bins: binsOf(sets[0]!.result),
     sets: perSet.map(p => ({ setId: p.s.result.setId, resultId: p.s.result.id, version: p.s.result.version, name: p.s.name, kind: p.s.header.kind, prescription: p.prescription, band: bandToJson(p.band) })),
     envelope: bandToJson(envelope),
-    pooled: { replicasPerSet, seed, replicas: pooled.replicas.members - 1, sd: bandToJson(scaleBands(pooled.sd, factor)), interval: bandToJson(interval) }
+    pooled: { replicasPerSet, seed, replicas: pooled.replicas.members - 1, sd: bandToJson(scaleBands(pooled.sd, factor)), interval: bandToJson(interval), intervalLabel: intervalRule('replica-68-interval', 68, clPercent).label }
   }
 }
 

@@ -387,6 +387,16 @@ describe('comparison and measurements', () => {
     expect(res.body.pooled).toMatchObject({ replicasPerSet: 40, seed: 3, replicas: 80 })
     const again = await ws.viewer.client.get(`${api()}/studies/${studyId}/comparison?replicasPerSet=40&seed=3`)
     expect(again.body.pooled.sd).toEqual(res.body.pooled.sd)
+    // At 90 % CL the pooled interval is read from the pool's 5th and 95th percentiles (not the
+    // 68 % interval rescaled): it says so, and it contains the 68 % interval of the same pool.
+    const at90 = await ws.viewer.client.get(`${api()}/studies/${studyId}/comparison?replicasPerSet=40&seed=3&cl=90`)
+    expect(res.body.pooled.intervalLabel).toBe('percentile 15.87–84.13 %')
+    expect(at90.body.pooled.intervalLabel).toBe('percentile 5–95 %')
+    for (let i = 0; i < 4; i++) {
+      const [p68, p90] = [res.body.pooled.interval, at90.body.pooled.interval]
+      expect(p90.central[i] + p90.plus[i]).toBeGreaterThanOrEqual(p68.central[i] + p68.plus[i])
+      expect(p90.central[i] - p90.minus[i]).toBeLessThanOrEqual(p68.central[i] - p68.minus[i])
+    }
     // By default as many per set as the smallest replica set has (here 40), at most 100.
     expect((await ws.viewer.client.get(`${api()}/studies/${studyId}/comparison`)).body.pooled.replicasPerSet).toBe(40)
     const tooMany = await ws.viewer.client.get(`${api()}/studies/${studyId}/comparison?replicasPerSet=500`)
