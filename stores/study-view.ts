@@ -271,9 +271,13 @@ export interface ResultDetail extends ResultRow {
   /** Which bins `spec.bins`, `bands` and `scaleVariation` hold (0-based offset, count, all bins). */
   bins?: { offset: number, limit: number, total: number }
   reporting: { prescription: string, clPercent: number, available: string[], setConfidenceLevelPercent: number }
-  bands: (BandJson & { prescription: string, clPercent: number, pdf: BandJson, alphas: number[] | null }) | null
-  /** Central member at μ_F = κ μ for each κ (values[k]), and the envelope about κ = 1: nominal ± up/down. */
-  scaleVariation: { kappas: number[], values: number[][], nominal: number[], up: number[], down: number[] } | null
+  /** `interval`: which rule made the interval (percentiles, or a Gaussian rescaling), absent in older results. */
+  bands: (BandJson & { prescription: string, clPercent: number, pdf: BandJson, alphas: number[] | null, interval?: { label: string } }) | null
+  /**
+   * Central member at μ_F = κ μ for each κ (values[k]), and the envelope about κ = 1: nominal ± up/down;
+   * `label` says which scales were varied (absent in older results).
+   */
+  scaleVariation: { kappas: number[], values: number[][], nominal: number[], up: number[], down: number[], variation?: string, label?: string } | null
   trail: { reviews: TrailEntry[], events: TrailEntry[] }
   caution: string
 }
