@@ -3,8 +3,9 @@ import { computed, ref, type Ref } from 'vue'
 import type { BinColumn, BinRow as GridRow, RowCheck, RowProblem } from '#shared/bins'
 import type { AxisSpec, BinPositions } from '#shared/export/figures'
 import type { VariableName, VariableSpec } from '#shared/physics/kernels/registry'
-import type { BinRow as SpecBin } from '#shared/physics/study/spec'
+import type { BinRow as SpecBin, StudyKFactors } from '#shared/physics/study/spec'
 import type { BandJson } from '#shared/physics/uncertainty/band'
+import type { IntervalRule } from '#shared/physics/uncertainty/bands'
 import { PRESCRIPTION_LABELS } from '#shared/utils/prescriptions'
 
 // ── The bins grid of a study: which columns a kernel's variables give, and the conversions
@@ -32,8 +33,22 @@ export function layoutsOf(variables: readonly VariableSpec[], bins: readonly Spe
 /** New studies: rapidity in ranges (hadron colliders bin in y), everything else at points (common practice). */
 export const defaultLayout = (v: VariableSpec): VariableLayout => (v.name === 'y' && v.label.startsWith('rapidity') ? 'range' : 'point')
 
-/** Grid columns: each variable as a point or a Min/Max pair (both for mixed data), then an optional label. */
-export function gridColumns(variables: readonly VariableSpec[], layouts: Record<string, VariableLayout>): BinColumn[] {
+/** Which K-factor columns the grid shows: none, the K-factor alone, or with its uncertainty. */
+export type KFactorColumns = 'none' | 'values' | 'values-errors'
+
+/** The grid's K-factor columns: K (> 0, needed in every bin once shown) and its uncertainty δK (≥ 0). */
+export const K_FACTOR_COLUMNS: Record<'kFactor' | 'kFactorError', BinColumn> = {
+  kFactor: { key: 'kFactor', label: 'K-factor', kind: 'number', min: 0, exclusiveMin: true, required: true, quantity: 'the K-factor' },
+  kFactorError: { key: 'kFactorError', label: 'K-factor error', kind: 'number', min: 0, quantity: 'the K-factor error' }
+}
+
+const isKColumn = (key: string) => key === 'kFactor' || key === 'kFactorError'
+
+/**
+ * Grid columns: each variable as a point or a Min/Max pair (both for mixed data), the K-factor
+ * columns when asked, then an optional label.
+ */
+export function gridColumns(variables: readonly VariableSpec[], layouts: Record<string, VariableLayout>, kFactors: KFactorColumns = 'none'): BinColumn[] {
   const columns: BinColumn[] = []
   for (const v of variables) {
     const { label, unit } = NAMES[v.name]
@@ -45,21 +60,43 @@ export function gridColumns(variables: readonly VariableSpec[], layouts: Record<
       columns.push({ key: `${v.name}Max`, label: `${label} max`, unit, kind: 'range-hi', required, quantity: label })
     }
   }
+  if (kFactors !== 'none') columns.push(K_FACTOR_COLUMNS.kFactor)
+  if (kFactors === 'values-errors') columns.push(K_FACTOR_COLUMNS.kFactorError)
   columns.push({ key: 'label', label: 'label', kind: 'text' })
   return columns
 }
 
-/** The spec's bins as grid rows (every column present, empty as null). */
-export function rowsFromBins(bins: readonly SpecBin[], columns: readonly BinColumn[]): GridRow[] {
-  return bins.map(b => Object.fromEntries(columns.map(c => [c.key, (b as Record<string, number | string | undefined>)[c.key] ?? null])))
+/** The K-factor columns a study's spec fills. */
+export const kFactorColumnsOf = (k: StudyKFactors | undefined): KFactorColumns => (!k ? 'none' : k.errors ? 'values-errors' : 'values')
+
+/** The spec's bins as grid rows (every column present, empty as null), with each bin's K-factor when given. */
+export function rowsFromBins(bins: readonly SpecBin[], columns: readonly BinColumn[], kFactors?: StudyKFactors): GridRow[] {
+  return bins.map((b, i) => Object.fromEntries(columns.map((c) => {
+    if (c.key === 'kFactor') return [c.key, kFactors?.values[i] ?? null]
+    if (c.key === 'kFactorError') return [c.key, kFactors?.errors?.[i] ?? null]
+    return [c.key, (b as Record<string, number | string | undefined>)[c.key] ?? null]
+  })))
 }
 
-/** Grid rows as the spec's bins: numbers in kinematic columns, the label when given. */
+/**
+ * The K-factor columns of the grid rows as the spec's per-bin lists (null without a K-factor
+ * column). An empty or unreadable cell stays in the list as it is, so the server's check names
+ * its bin and column; an all-empty error column gives no errors.
+ */
+export function kFactorsFromRows(rows: readonly Readonly<GridRow>[], columns: readonly BinColumn[]): { values: unknown[], errors?: unknown[] } | null {
+  if (!columns.some(c => c.key === 'kFactor')) return null
+  const values = rows.map(r => r.kFactor ?? null)
+  const errors = columns.some(c => c.key === 'kFactorError') ? rows.map(r => r.kFactorError ?? null) : []
+  return errors.some(e => e !== null) ? { values, errors } : { values }
+}
+
+/** Grid rows as the spec's bins: numbers in kinematic columns, the label when given (K-factors apart). */
 export function binsFromRows(rows: readonly Readonly<GridRow>[], columns: readonly BinColumn[]): SpecBin[] {
   return rows.map((row) => {
     const bin: Record<string, number | string> = {}
     for (const c of columns) {
       const v = row[c.key]
+      if (isKColumn(c.key)) continue
       if (c.key === 'label') {
         if (v !== null && v !== undefined && String(v).trim() !== '') bin.label = String(v).trim()
       }
@@ -251,6 +288,7 @@ export interface ResultRow {
 export interface StudySpecJson {
   kernel: string, options: Record<string, unknown>, bins: SpecBin[]
   quadratureOrder?: number, fullRangeOrder?: number, scaleFactor?: number, rangeMode?: string, title?: string
+  kFactors?: StudyKFactors
 }
 
 export interface StudyDetail {
@@ -271,13 +309,11 @@ export interface ResultDetail extends ResultRow {
   /** Which bins `spec.bins`, `bands` and `scaleVariation` hold (0-based offset, count, all bins). */
   bins?: { offset: number, limit: number, total: number }
   reporting: { prescription: string, clPercent: number, available: string[], setConfidenceLevelPercent: number }
-  /** `interval`: which rule made the interval (percentiles, or a Gaussian rescaling), absent in older results. */
-  bands: (BandJson & { prescription: string, clPercent: number, pdf: BandJson, alphas: number[] | null, interval?: { label: string } }) | null
-  /**
-   * Central member at μ_F = κ μ for each κ (values[k]), and the envelope about κ = 1: nominal ± up/down;
-   * `label` says which scales were varied (absent in older results).
-   */
-  scaleVariation: { kappas: number[], values: number[][], nominal: number[], up: number[], down: number[], variation?: string, label?: string } | null
+  bands: (BandJson & { prescription: string, clPercent: number, pdf: BandJson, alphas: number[] | null, interval?: IntervalRule }) | null
+  /** Central member at μ_F = κ μ for each κ (values[k]), and the envelope about κ = 1: nominal ± up/down; `label` says which scales moved. */
+  scaleVariation: { kappas: number[], values: number[][], nominal: number[], up: number[], down: number[], label?: string, variation?: string } | null
+  /** The K-factors of the page's bins and their uncertainty δX at the band's CL, apart from the band; null without K-factors. */
+  kFactors: { values: number[], errors: number[] | null, source: string | null, addedInQuadrature: boolean, error: number[] | null, combined: BandJson | null } | null
   trail: { reviews: TrailEntry[], events: TrailEntry[] }
   caution: string
 }
@@ -287,6 +323,22 @@ const BIN_KEYS = ['x', 'xMin', 'xMax', 'q2', 'q2Min', 'q2Max', 'y', 'yMin', 'yMa
 /** Whether two lists of bins are the same kinematics (key order does not matter; stored JSON is reordered). */
 export function sameBins(a: readonly SpecBin[], b: readonly SpecBin[]): boolean {
   return a.length === b.length && a.every((p, i) => BIN_KEYS.every(k => (p[k] ?? null) === (b[i]![k] ?? null)))
+}
+
+/** Whether a result's K-factor values are those of the draft's K columns (both none counts as the same). */
+export function sameKFactors(run: { values: readonly unknown[] } | undefined | null, draft: { values: readonly unknown[] } | null): boolean {
+  return JSON.stringify(run?.values ?? null) === JSON.stringify(draft?.values ?? null)
+}
+
+/** The sentence under the grid on a result's K-factors: used, their source, where their uncertainty is. */
+export function kFactorNote(k: NonNullable<ResultDetail['kFactors']>): string {
+  const source = k.source ? `source: ${k.source}` : 'no source given'
+  const error = !k.error
+    ? 'No K-factor uncertainty was given.'
+    : k.addedInQuadrature
+      ? 'Their uncertainty δ(K) Δ is shown apart and also added in quadrature to the PDF band (±Δ ⊕ δ(K)).'
+      : 'Their uncertainty δ(K) Δ is shown apart from the PDF band, not added to it.'
+  return `The values are multiplied by per-bin K-factors (${source}). ${error} K-factors are your responsibility.`
 }
 
 /**

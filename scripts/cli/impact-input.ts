@@ -47,7 +47,7 @@ export interface StudyValues {
   /** Title of the study, or the values file's name. */
   title: string
   /** The K-factors applied, if any. */
-  kFactors?: KFactors
+  kFactors?: KFactors & { addErrorInQuadrature?: boolean }
 }
 
 /**
@@ -62,6 +62,7 @@ export function studyValues(io: CliIo, file: string, set: ErrorSet, setFile: str
   if (outside !== 'error' && outside !== 'freeze') throw new UsageError(`--outside must be error or freeze, got '${outside}'.`)
   let matrix: MemberValues
   let title: string
+  let specK: (KFactors & { addErrorInQuadrature?: boolean }) | undefined
   if (typeof doc === 'object' && doc !== null && ('sets' in doc || 'values' in doc)) {
     const entries = readValuesDocument(doc, file, basename(file).replace(/\.json$/i, ''))
     const entry = entries.length === 1 ? entries[0]! : entries.find(e => e.set === set.header.name)
@@ -75,6 +76,7 @@ export function studyValues(io: CliIo, file: string, set: ErrorSet, setFile: str
   } else {
     try {
       const spec = parseStudySpec(doc)
+      specK = spec.kFactors
       const plan = buildPlan(spec, set, { outside, alphas: setAlphas(set.header) })
       const values = evaluatePlan(plan, set.members)
       matrix = { members: set.members.length, bins: spec.bins.length, values }
@@ -85,6 +87,13 @@ export function studyValues(io: CliIo, file: string, set: ErrorSet, setFile: str
     }
   }
   const kFile = stringOption(args, 'k-factors')
+  // A study whose spec carries K-factors is read with them, as the web app runs it.
+  if (specK !== undefined) {
+    if (kFile !== undefined || stringOption(args, 'k-source') !== undefined) {
+      throw new UsageError(`${file} carries its own K-factors (kFactors in the study); drop --k-factors and --k-source, or remove them from the study.`)
+    }
+    return { matrix: applyKFactors(matrix, specK), title, kFactors: specK }
+  }
   if (kFile === undefined) {
     if (stringOption(args, 'k-source') !== undefined) throw new UsageError('--k-source describes K-factors: give them with --k-factors <file>.')
     return { matrix, title }

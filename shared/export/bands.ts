@@ -1,6 +1,6 @@
 import { writeCsv } from './csv'
 import { provenanceLines, provenanceObject } from './provenance'
-import { RESULT_CAUTION } from './caution'
+import { RESULT_CAUTION, resultCaution } from './caution'
 import type { LabelledBand, ResultForExport } from './types'
 
 const BAND_PARTS = ['central', 'plus', 'minus', 'relPlus', 'relMinus'] as const
@@ -74,14 +74,14 @@ export function bandsToJson(result: ResultForExport) {
     format: 'sheaf-bands',
     formatVersion: 1,
     provenance: provenanceObject(result.provenance),
-    ...bandsJsonBody(result)
+    ...bandsJsonBody(result, resultCaution(Boolean(result.provenance.kFactors)))
   }
 }
 
 /** Everything of {@link bandsToJson} after the provenance: caution, observable, columns, bins. */
-export function bandsJsonBody(result: Omit<ResultForExport, 'provenance'>) {
+export function bandsJsonBody(result: Omit<ResultForExport, 'provenance'>, caution = RESULT_CAUTION) {
   return {
-    caution: RESULT_CAUTION,
+    caution,
     observable: result.observable,
     columns: result.binColumns.map(({ key, label, unit }) => ({ key, label, ...(unit ? { unit } : {}) })),
     bands: result.bands.map(({ id, label }) => ({ id, label })),

@@ -1,5 +1,5 @@
 import { columnHeader } from '../bins/grid'
-import { RESULT_CAUTION_SHORT } from './caution'
+import { resultCautionShort } from './caution'
 import { checkResult } from './bands'
 import { roundMeasurement } from './numbers'
 import type { RoundingOptions } from './numbers'
@@ -102,7 +102,7 @@ const SHORT_HEADS: Record<string, { head: string, unit?: string }> = {
   q2: { head: '$Q^{2}$', unit: 'GeV$^{2}$' }, q2Min: { head: '$Q^{2}_{\\min}$', unit: 'GeV$^{2}$' }, q2Max: { head: '$Q^{2}_{\\max}$', unit: 'GeV$^{2}$' },
   y: { head: '$y$' }, yMin: { head: '$y_{\\min}$' }, yMax: { head: '$y_{\\max}$' },
   m: { head: '$M$', unit: 'GeV' }, mMin: { head: '$M_{\\min}$', unit: 'GeV' }, mMax: { head: '$M_{\\max}$', unit: 'GeV' },
-  label: { head: 'bin' }
+  label: { head: 'bin' }, kFactor: { head: '$K$' }, kFactorError: { head: '$\\delta K$' }
 }
 
 /** A kinematic column's head: short, with its unit in brackets on the same line. */
@@ -126,6 +126,8 @@ export interface LatexTableInput {
   columns: Array<{ key: string, band: ResultForExport['bands'][number]['band'] }>
   /** Caption sentences (LaTeX) after the key; the caution is appended. */
   caption: string[]
+  /** Whether K-factors scaled the values (the caution then says they are the user's responsibility). */
+  kFactors?: boolean
 }
 
 /**
@@ -159,7 +161,7 @@ export function latexTable(input: LatexTableInput, options: Pick<LatexTableOptio
     ? [`${obs}: ${latexText(input.columns[0]!.key)}.`]
     : [`Columns ${input.columns.map((c, i) => `${keyLetter(i)} ${latexText(c.key)}`).join('; ')}.`]
   const rounding = 'Values rounded by the Particle Data Group\'s rule (Review of Particle Physics, Introduction).'
-  const caption = [...key, ...input.caption, rounding, latexText(RESULT_CAUTION_SHORT)].join(' ')
+  const caption = [...key, ...input.caption, rounding, latexText(resultCautionShort(Boolean(input.kFactors)))].join(' ')
   const spec = `${'c'.repeat(kinematic.length)}${'r'.repeat(input.columns.length)}`
   const long = input.bins.length > (options.longAfter ?? 30)
   const label = options.label ? `\\label{${options.label}}` : ''
@@ -228,6 +230,7 @@ export function bandsToLatex(result: ResultForExport, options: LatexTableOptions
     binColumns: result.binColumns,
     bins: result.bins,
     columns: bands.map(b => ({ key: b.label, band: b.band })),
+    kFactors: Boolean(p.kFactors),
     caption: [
       ...(options.caption ? [options.caption] : []),
       `PDF set ${latexText(setText(p))}; ${latexText(confidenceText(p))}.`,

@@ -1,5 +1,5 @@
-import { RESULT_CAUTION } from './caution'
-import type { ExportObservable, ExportProvenance } from './types'
+import { resultCaution } from './caution'
+import type { ExportKFactors, ExportObservable, ExportProvenance } from './types'
 
 export const isoTime = (t: string | Date) => (typeof t === 'string' ? t : t.toISOString())
 
@@ -26,6 +26,14 @@ export const setText = (p: ExportProvenance) => `${p.set.name} version ${p.set.v
 const constantsText = (c: ExportProvenance['kernel']['constants']) =>
   Object.entries(c).map(([k, v]) => `${k}=${v}`).join(', ') || 'none'
 
+/** The provenance line of K-factors: that they were used, their source, how their uncertainty is reported. */
+export function kFactorText(k: ExportKFactors): string {
+  const error = !k.withErrors
+    ? 'no K-factor uncertainty given'
+    : `their uncertainty is reported apart (band k-factor)${k.addedInQuadrature ? ' and also added in quadrature to the PDF band (band pdf+k-factor)' : ''}`
+  return `per-bin K-factors multiply every member before the bands (columns kFactor, kFactorError); source: ${k.source?.trim() || 'not given'}; ${error}`
+}
+
 /**
  * The provenance as "key: value" lines, the same in every format (CSV `#` comments, LaTeX `%`
  * comments), ending with the caution.
@@ -38,11 +46,12 @@ export function provenanceLines(p: ExportProvenance, observable: ExportObservabl
     `set: ${setText(p)}`,
     `prescription: ${p.prescription}; ${confidenceText(p)}`,
     `kernel: ${p.kernel.id}${p.kernel.label ? ` (${p.kernel.label})` : ''}; constants: ${constantsText(p.kernel.constants)}`,
+    ...(p.kFactors ? [`K-factors: ${kFactorText(p.kFactors)}`] : []),
     `engine version: ${p.engineVersion}`,
     `run by: ${p.ranBy} at ${isoTime(p.ranAt)}`,
     `result version: ${p.resultVersion}; ${approvalText(p)}`,
     ...(p.exportedAt || p.exportedBy ? [`exported${p.exportedBy ? ` by ${p.exportedBy}` : ''}${p.exportedAt ? ` at ${isoTime(p.exportedAt)}` : ''}`] : []),
-    `caution: ${RESULT_CAUTION}`
+    `caution: ${resultCaution(Boolean(p.kFactors))}`
   ]
 }
 

@@ -5,9 +5,9 @@
  */
 import type { BandView } from '../physics/uncertainty/band'
 import { bandsCsvRecords, bandsJsonBody, checkResult, csvColumnNotes } from './bands'
-import { RESULT_CAUTION } from './caution'
+import { resultCaution } from './caution'
 import { latexTable, latexText, type LatexTableOptions } from './latex'
-import { approvalText, confidenceText, isoTime, provenanceObject, setText } from './provenance'
+import { approvalText, confidenceText, isoTime, kFactorText, provenanceObject, setText } from './provenance'
 import type { ExportObservable, ExportProvenance, ResultForExport } from './types'
 
 /** A study's newest finished result on each of its sets, all on the same bins. */
@@ -23,7 +23,10 @@ export interface StudyForExport {
 }
 
 const setLine = (p: ExportProvenance) =>
-  `${setText(p)}; ${p.prescription}; ${confidenceText(p)}; result version ${p.resultVersion}, ${approvalText(p)}; run by ${p.ranBy} at ${isoTime(p.ranAt)}; engine ${p.engineVersion}`
+  `${setText(p)}; ${p.prescription}; ${confidenceText(p)}; result version ${p.resultVersion}, ${approvalText(p)}; run by ${p.ranBy} at ${isoTime(p.ranAt)}; engine ${p.engineVersion}${p.kFactors ? `; K-factors: ${kFactorText(p.kFactors)}` : ''}`
+
+/** Whether any set's result was scaled by K-factors. */
+const withKFactors = (s: StudyForExport) => s.sets.some(x => x.provenance.kFactors)
 
 /** The study as a ResultForExport-like table whose bands are the sets (label: set, prescription). */
 function asTable(s: StudyForExport): Omit<ResultForExport, 'provenance'> {
@@ -47,7 +50,7 @@ export function studyProvenanceLines(s: StudyForExport, what: string): string[] 
     `kernel: ${p.kernel.id}${p.kernel.label ? ` (${p.kernel.label})` : ''}; constants: ${constants}`,
     ...s.sets.map(x => `set ${x.id}: ${setLine(x.provenance)}`),
     ...(s.exportedAt || s.exportedBy ? [`exported${s.exportedBy ? ` by ${s.exportedBy}` : ''}${s.exportedAt ? ` at ${isoTime(s.exportedAt)}` : ''}`] : []),
-    `caution: ${RESULT_CAUTION}`
+    `caution: ${resultCaution(withKFactors(s))}`
   ]
 }
 
@@ -67,7 +70,7 @@ export function studyToJson(s: StudyForExport) {
     sets: s.sets.map(x => ({ id: x.id, provenance: provenanceObject(x.provenance) })),
     ...(s.exportedBy ? { exportedBy: s.exportedBy } : {}),
     ...(s.exportedAt ? { exportedAt: isoTime(s.exportedAt) } : {}),
-    ...bandsJsonBody(table)
+    ...bandsJsonBody(table, resultCaution(withKFactors(s)))
   }
 }
 
@@ -84,6 +87,7 @@ export function studyToLatex(s: StudyForExport, options: Pick<LatexTableOptions,
     binColumns: s.binColumns,
     bins: s.bins,
     columns: table.bands.map(b => ({ key: b.label, band: b.band })),
+    kFactors: withKFactors(s),
     caption: [
       ...(options.caption ? [options.caption] : []),
       `Study ${latexText(s.study.name)}; ${latexText(cls.join('; '))}.`,

@@ -27,6 +27,18 @@ export interface ExportProvenance {
   approval: { state: ApprovalState, by?: string, at?: string | Date }
   exportedBy?: string
   exportedAt?: string | Date
+  /** Present when the study's members were multiplied by per-bin K-factors before the bands. */
+  kFactors?: ExportKFactors
+}
+
+/** Which K-factors a result used (the per-bin values are columns of the bins). */
+export interface ExportKFactors {
+  /** Where they came from, as the user wrote it; null when not given. */
+  source: string | null
+  /** Whether a per-bin K-factor uncertainty was given (then reported as its own band). */
+  withErrors: boolean
+  /** Whether that uncertainty was also added in quadrature to the PDF band (its own band too). */
+  addedInQuadrature: boolean
 }
 
 /** The observable, for headers and captions. */

@@ -42,7 +42,7 @@ const setIdList = z.array(z.uuid({ error: 'Each set id must be a uuid' })).max(2
 export const studyCreateSchema = z.object({
   name: storableString({ error: 'Give the study a name' }).trim().min(1, 'Give the study a name').max(200, 'Keep the name under 200 characters'),
   description: storableString().max(5000, 'Keep the description under 5000 characters').default(''),
-  /** The engine's StudySpec (kernel, options, bins …), checked by the engine. */
+  /** The engine's StudySpec (kernel, options, bins, optional per-bin kFactors …), checked by the engine (bin and column located). */
   spec: storableJson().refine(v => v !== undefined, 'Give the study spec (kernel, options and bins)'),
   setIds: setIdList.default([]),
   secondSetId: z.uuid({ error: 'secondSetId must be a uuid' }).nullable().default(null),

@@ -103,7 +103,9 @@ function scaleReport(spec: StudySpec, set: ErrorSet, options: PlanOptions & { se
 function loadStudy(io: CliIo, file: string): StudySpec {
   const doc = readJson(io, file)
   try {
-    return parseStudySpec(doc)
+    const spec = parseStudySpec(doc)
+    if (spec.kFactors) throw new RangeError('the study carries K-factors (kFactors); compute gives leading-order values only: use \'sheaf kfactor\' for the K-scaled bands')
+    return spec
   } catch (e) {
     throw new BadInputError(`${file}: ${(e as Error).message}`)
   }

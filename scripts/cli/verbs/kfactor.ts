@@ -16,7 +16,8 @@ export const kfactorVerb: VerbSpec = {
   summary: 'a study\'s bands with per-bin K-factors, their own uncertainty reported apart',
   help: `Usage: sheaf kfactor <study.json|values.json> <set> --k-factors <file> [options]
 
-Multiplies every member's value in each bin by the bin's K-factor, then computes the band
+Multiplies every member's value in each bin by the bin's K-factor (from --k-factors, or the
+study's own kFactors when its spec carries them), then computes the band
 (the set's default prescription unless --prescription). The K-factor uncertainty,
 δX = |X| δK/K at 68% CL, is reported in its own column and, with --add-k-error, also added in
 quadrature to the band (brought to --cl). K-factors are the user's responsibility.
@@ -41,7 +42,6 @@ export function runKfactor(argv: readonly string[], io: CliIo): number {
   const args = parseVerbArgs(kfactorVerb, argv)
   if (args.help) { io.stdout(`${kfactorVerb.help}\n`); return 0 }
   const format = outputFormat('kfactor', args)
-  if (stringOption(args, 'k-factors') === undefined) throw new UsageError('kfactor needs --k-factors <file>; see \'sheaf kfactor --help\'.')
   const name = stringOption(args, 'prescription')
   if (name !== undefined && !isPrescription(name)) throw new UsageError(`kfactor: unknown prescription '${name}'; use one of: ${PRESCRIPTIONS.join(', ')}.`)
   const clText = stringOption(args, 'cl')
@@ -50,9 +50,10 @@ export function runKfactor(argv: readonly string[], io: CliIo): number {
   const set = loadSet(io, setFile)
   // studyValues has applied the K-factors already: the band below is that of the K-scaled members.
   const study = studyValues(io, studyFile, set, setFile, args)
-  const k = study.kFactors!
+  if (!study.kFactors) throw new UsageError('kfactor needs --k-factors <file>, or a study whose spec carries kFactors; see \'sheaf kfactor --help\'.')
+  const k = study.kFactors
   const prescription: Prescription = name ?? prescriptionsFor(set.header.kind)[0]!
-  const add = args.values['add-k-error'] === true
+  const add = args.values['add-k-error'] === true || k.addErrorInQuadrature === true
   let result
   try {
     result = computeBands(study.matrix, { kind: set.header.kind, prescription, clFrom: set.header.confidenceLevelPercent, clTo, alphasMembers: set.header.alphasMembers })

@@ -16,6 +16,7 @@ import type { StudyForExport } from '../../../shared/export/study'
 import { fail } from '../errors'
 import { latestDoneResults } from '../studies/studies'
 import { reportingChoice, resultBands, resultSetHeader, userNames } from './results'
+import { exportKFactors, kFactorExportBands, kFactorView } from './k-factors'
 
 const COLUMN_LABELS: Record<string, { label: string, unit?: string }> = {
   x: { label: 'x' }, xMin: { label: 'x min' }, xMax: { label: 'x max' },
@@ -29,7 +30,20 @@ export function exportColumns(spec: StudySpec): GridColumn[] {
   const used = BIN_COLUMNS.filter(c => spec.bins.some(b => b[c] !== undefined))
   const columns: GridColumn[] = used.map(key => ({ key, label: COLUMN_LABELS[key]!.label, unit: COLUMN_LABELS[key]!.unit, kind: 'number' }))
   if (spec.bins.some(b => b.label)) columns.unshift({ key: 'label', label: 'bin', kind: 'text' })
+  // The K-factors of each bin (and their uncertainty) follow the kinematics.
+  if (spec.kFactors) columns.push({ key: 'kFactor', label: 'K-factor', kind: 'number' })
+  if (spec.kFactors?.errors) columns.push({ key: 'kFactorError', label: 'K-factor error', kind: 'number' })
   return columns
+}
+
+/** The bins as export rows: the kinematics, with the bin's K-factor and its error when the study has them. */
+export function exportBins(spec: StudySpec): GridRow[] {
+  const k = spec.kFactors
+  return spec.bins.map((b, i) => ({
+    ...b,
+    ...(k ? { kFactor: k.values[i]! } : {}),
+    ...(k?.errors ? { kFactorError: k.errors[i]! } : {})
+  }) as GridRow)
 }
 
 /** Options as flat "key=value" constants (nested objects get dotted keys), with the physical constants. */
@@ -81,16 +95,22 @@ export async function exportProvenance(db: DB, r: Result, study: Study, header: 
       ? { state: 'approved', by: approval.by ?? undefined, at: approval.at }
       : { state: r.reviewState },
     exportedBy,
-    exportedAt: new Date()
+    exportedAt: new Date(),
+    ...(spec.kFactors ? { kFactors: exportKFactors(spec) } : {})
   }
 }
 
-/** A result version as the shared/export formatters take it: the PDF band, then the scale band apart. */
+/**
+ * A result version as the shared/export formatters take it: the PDF band, then the K-factor
+ * uncertainty (apart, and with the PDF band in quadrature when the study asks), then the scale band apart.
+ */
 export function resultForExport(
   provenance: ExportProvenance, spec: StudySpec, prescription: Prescription, bands: StoredBands,
   scale: ScaleVariationJson | null
 ): ResultForExport {
-  const exportBands: LabelledBand[] = [{ id: prescription, label: `PDF, ${PRESCRIPTION_LABELS[prescription]}`, band: bands }]
+  const pdfLabel = `PDF, ${PRESCRIPTION_LABELS[prescription]}`
+  const exportBands: LabelledBand[] = [{ id: prescription, label: pdfLabel, band: bands }]
+  exportBands.push(...kFactorExportBands(kFactorView(spec, bands, bands.clPercent), bands, pdfLabel))
   if (scale) {
     const [lo, mid, hi] = scale.kappas
     exportBands.push({ id: 'scale', label: `factorisation-scale variation, μ_F/μ = ${lo}, ${mid}, ${hi} (not a PDF uncertainty)`, band: bandToJson(makeBands(scale.nominal, scale.up, scale.down)) })
@@ -99,7 +119,7 @@ export function resultForExport(
     provenance,
     observable: exportObservable(spec),
     binColumns: exportColumns(spec),
-    bins: spec.bins.map(b => ({ ...b }) as GridRow),
+    bins: exportBins(spec),
     bands: exportBands
   }
 }
@@ -115,6 +135,9 @@ export async function studyForExport(db: DB, study: Study, query: { cl?: number 
   if (new Set(results.map(r => JSON.stringify(r.specSnapshot.spec.bins))).size > 1) {
     fail(409, 'The newest results were computed on different bins (the study was edited between runs); run the study again on every set')
   }
+  if (new Set(results.map(r => JSON.stringify(r.specSnapshot.spec.kFactors ?? null))).size > 1) {
+    fail(409, 'The newest results were computed with different K-factors (the study was edited between runs); run the study again on every set')
+  }
   const ids = new Set<string>()
   const sets = await Promise.all(results.map(async (r) => {
     const header = await resultSetHeader(db, r)
@@ -128,7 +151,7 @@ export async function studyForExport(db: DB, study: Study, query: { cl?: number 
     study: { id: study.id, name: study.name },
     observable: exportObservable(spec),
     binColumns: exportColumns(spec),
-    bins: spec.bins.map(b => ({ ...b }) as GridRow),
+    bins: exportBins(spec),
     sets: sets.map(({ r, provenance, band }) => {
       let id = `${r.specSnapshot.set.name}-${r.specSnapshot.set.version}`.replace(/[^\w.-]+/g, '_')
       while (ids.has(id)) id += '_'

@@ -4,6 +4,7 @@
 // prescription or CL are computed here, see results.ts).
 import type { ScaleVariationJson, StoredBands } from '../../database/schema'
 import type { BandJson } from '../../../shared/physics/uncertainty/band'
+import type { StudySpec } from '../../../shared/physics/study/spec'
 import { fail } from '../errors'
 
 /** Bins sent at once by default; a result with at most this many is sent whole. */
@@ -37,8 +38,18 @@ export function bandsPage(bands: StoredBands, p: BinPage): StoredBands {
 
 /** A scale variation on the bins of page `p`. */
 export function scalePage(scale: ScaleVariationJson, p: BinPage): ScaleVariationJson {
-  return { kappas: scale.kappas, values: scale.values.map(v => slice(v, p)), nominal: slice(scale.nominal, p), up: slice(scale.up, p), down: slice(scale.down, p) }
+  return { ...scale, kappas: scale.kappas, values: scale.values.map(v => slice(v, p)), nominal: slice(scale.nominal, p), up: slice(scale.up, p), down: slice(scale.down, p) }
 }
 
 /** The bins of page `p` of a list (the spec's bins). */
 export const binsPage = <T>(bins: T[], p: BinPage) => slice(bins, p)
+
+/** The spec with the bins (and their K-factors, if any) of page `p`. */
+export function specPage(spec: StudySpec, p: BinPage): StudySpec {
+  const k = spec.kFactors
+  return {
+    ...spec,
+    bins: slice(spec.bins, p),
+    ...(k ? { kFactors: { ...k, values: slice(k.values, p), ...(k.errors ? { errors: slice(k.errors, p) } : {}) } } : {})
+  }
+}

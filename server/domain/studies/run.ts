@@ -3,7 +3,8 @@
 // member through the engine's precomputed plan, on every core of the evaluation pool when the
 // work is large, in chunks with progress (members done / total)), "combining" (the bands of every
 // prescription of the set's kind at the study's CL; the scale variation of the central members
-// ran beside the members), "storing" (values, scale variation and bands in one transaction).
+// ran beside the members; with K-factors in the spec both are K-scaled first), "storing" (values,
+// scale variation and bands in one transaction).
 // The cancel flag is watched all along (lifecycle.ts watchCancel). A large run may instead be
 // evaluated as member chunks by any number of workers (evaluateRunChunk, the chunk jobs of a
 // BullMQ flow) and combined here from their values (`memberValues`). Idempotent: a retry of a
@@ -15,7 +16,9 @@ import { tables as t } from '../../database/client'
 import type { Result, ScaleVariationJson, StoredBands } from '../../database/schema'
 import type { Plan } from '../../../shared/physics/study/plan'
 import { parseStudySpec, type StudySpec } from '../../../shared/physics/study/spec'
+import { applyKFactors, applyKFactorsToRows } from '../../../shared/physics/impact/k-factors'
 import type { ErrorSet } from '../../../shared/physics/types'
+import type { MemberValues } from '../../../shared/physics/uncertainty'
 import { prescriptionsFor } from '../../../shared/physics/uncertainty/bands'
 import { ENGINE_VERSION } from '../../../shared/physics/version'
 import type { JobPhase, JobProgress } from '../../../shared/queue/workflow'
@@ -144,14 +147,16 @@ export interface CombinedRun {
  */
 export async function combineRun(spec: StudySpec, set: ErrorSet, roles: { main: ErrorSet, second: ErrorSet | null } | null, values: Float64Array, clPercent: number,
   o: { pool: boolean, signal?: AbortSignal, scale?: Promise<ScaleVariationJson | null> | null }): Promise<CombinedRun> {
-  const matrix = { members: set.members.length, bins: spec.bins.length, values }
+  // With K-factors every member's value is K-scaled first: the stored values, the bands and all
+  // that is later computed from them (other prescriptions, matrices, comparisons) are K-scaled.
+  const matrix = withKFactors(spec, { members: set.members.length, bins: spec.bins.length, values })
   const source = memberSourceOf(set.header)
   const main = roles?.main ?? set
   const second = roles?.second ?? null
   let bands: StoredBands[]
   let scale: ScaleVariationJson | null
   if (o.pool) {
-    const sharedMatrix = { ...matrix, values: shared(values) }
+    const sharedMatrix = { ...matrix, values: shared(matrix.values) }
     const pending = prescriptionsFor(set.header.kind).map(p => bandsOnPool(sharedMatrix, source, p, clPercent, o.signal))
     const scaleNow = o.scale ?? scaleOnPool(spec, main, second, o.signal)
     bands = await Promise.all(pending)
@@ -160,7 +165,19 @@ export async function combineRun(spec: StudySpec, set: ErrorSet, roles: { main: 
     bands = prescriptionsFor(set.header.kind).map(p => storedBands(bandsFromValues(matrix, source, p, clPercent)))
     scale = o.scale ? await o.scale : scaleVariationOf(spec, main, second)
   }
-  return { members: matrix.members, bins: matrix.bins, values, scale, bands }
+  return { members: matrix.members, bins: matrix.bins, values: matrix.values, scale: scaleWithKFactors(spec, scale), bands }
+}
+
+/** The members K-scaled by the engine when the study has K-factors; else the same matrix. */
+function withKFactors(spec: StudySpec, matrix: MemberValues): MemberValues {
+  return spec.kFactors ? applyKFactors(matrix, spec.kFactors) : matrix
+}
+
+/** The scale variation of the K-scaled prediction (the same K at every scale). */
+function scaleWithKFactors(spec: StudySpec, scale: ScaleVariationJson | null): ScaleVariationJson | null {
+  if (!scale || !spec.kFactors) return scale
+  const [nominal, up, down, ...values] = applyKFactorsToRows([scale.nominal, scale.up, scale.down, ...scale.values], spec.kFactors)
+  return { ...scale, nominal: nominal!, up: up!, down: down!, values }
 }
 
 /** The storing phase: values, scale variation, bands, state and audit event in one transaction. */

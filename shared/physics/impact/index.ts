@@ -4,7 +4,9 @@
  * sensitivity maps. Pure functions over member-value matrices and error sets.
  */
 
-export { type KFactors, type KFactorBands, checkKFactors, applyKFactors, kFactorErrors, kFactorBands } from './k-factors'
+export {
+  type KFactors, type KFactorBands, type KFactorReport, checkKFactors, applyKFactors, applyKFactorsToRows, kFactorErrors, kFactorReportOf, kFactorBands
+} from './k-factors'
 export {
   type WeightForm, type ReweightOptions, type ReweightResult, WEIGHT_FORMS, replicaChi2, reweightingWeights,
   effectiveReplicas, weightedMoments, weightedBand, chi2Profile, reweight

@@ -3,7 +3,7 @@
  * shared/physics/README.md, section 21.1). K-factors are the user's responsibility: the engine
  * applies them, it does not judge them.
  */
-import { addInQuadrature, computeBands, sigmaMultiple, type Band, type BandOptions, type MemberValues } from '../uncertainty'
+import { addInQuadrature, computeBands, makeBands, sigmaMultiple, type Band, type BandOptions, type MemberValues } from '../uncertainty'
 import { assertMemberValues } from '../uncertainty/matrix'
 
 /** K-factors of a study, one per bin. */
@@ -77,6 +77,32 @@ export function kFactorErrors(scaledCentral: ArrayLike<number>, k: KFactors): Fl
   return out
 }
 
+/** What the K-factor uncertainty adds to a PDF band of K-scaled members ({@link kFactorReportOf}). */
+export interface KFactorReport {
+  /** δX'_b of kFactorErrors, one standard deviation (68% CL), reported apart from the PDF band. */
+  kFactorError: Float64Array
+  /** δX'_b brought to the band's CL by z(clTo) (a Gaussian multiple, as δK is given at 68% CL). */
+  kFactorErrorAtCl: Float64Array
+  /** The PDF band with kFactorErrorAtCl added in quadrature, only when asked for. */
+  combined?: Band
+}
+
+/**
+ * The K-factor uncertainty of a PDF band already computed from K-scaled members: δX' at 68% CL
+ * and at the band's CL `clTo`, and, with `addInQuadratureToo`, the band with it added in
+ * quadrature to both half-widths (√(ΔX² + δX'²); common practice for independent uncertainties).
+ *
+ * Unit: that of the observable. Domain: a band of as many bins as K-factors; 0 < clTo < 100.
+ * @example kFactorReportOf(band, { values: [1.2], errors: [0.1] }, 68, true).combined
+ */
+export function kFactorReportOf(pdf: Band<ArrayLike<number>, unknown>, k: KFactors, clTo = 68, addInQuadratureToo = false): KFactorReport {
+  const kFactorError = kFactorErrors(pdf.central, k)
+  const factor = sigmaMultiple(clTo)
+  const kFactorErrorAtCl = kFactorError.map(v => v * factor)
+  if (!addInQuadratureToo) return { kFactorError, kFactorErrorAtCl }
+  return { kFactorError, kFactorErrorAtCl, combined: addInQuadrature(makeBands(pdf.central, pdf.plus, pdf.minus), kFactorErrorAtCl) }
+}
+
 /** Result of {@link kFactorBands}. */
 export interface KFactorBands {
   /** The PDF band of the K-scaled members (the prescription and CL of the options). */
@@ -100,8 +126,24 @@ export function kFactorBands(matrix: MemberValues, k: KFactors, options: BandOpt
   const scaled = applyKFactors(matrix, k)
   const result = computeBands(scaled, options)
   const pdf: Band = { central: result.central, plus: result.plus, minus: result.minus, relPlus: result.relPlus, relMinus: result.relMinus }
-  const kFactorError = kFactorErrors(pdf.central, k)
-  if (!addKFactorErrorInQuadrature) return { pdf, kFactorError }
-  const factor = sigmaMultiple(options.clTo ?? 68)
-  return { pdf, kFactorError, combined: addInQuadrature(pdf, kFactorError.map(v => v * factor)) }
+  const report = kFactorReportOf(pdf, k, options.clTo ?? 68, addKFactorErrorInQuadrature)
+  return { pdf, kFactorError: report.kFactorError, ...(report.combined ? { combined: report.combined } : {}) }
+}
+
+/**
+ * Per-bin rows other than members (a scale variation's values, nominal value and half-widths),
+ * each multiplied by its bin's K-factor as {@link applyKFactors} does for members. The K-factor
+ * is taken to be the same at every scale choice (common practice for a fixed table of K-factors;
+ * a scale-dependent K would need its own table per scale).
+ *
+ * Unit: that of the rows. Domain: every row of length = number of K-factors; K as checkKFactors;
+ * non-finite entries (a bin the variation could not reach) stay non-finite.
+ * @example applyKFactorsToRows([[10, 20]], { values: [1.5, 1] }) // [[15, 20]]
+ */
+export function applyKFactorsToRows(rows: ReadonlyArray<ArrayLike<number>>, k: KFactors): number[][] {
+  return rows.map((r, i) => {
+    if (r.length !== k.values.length) throw new RangeError(`Row ${i + 1} has ${r.length} bins but there are ${k.values.length} K-factors.`)
+    checkKFactors(k, r.length)
+    return Array.from(r, (v, b) => v * k.values[b]!)
+  })
 }

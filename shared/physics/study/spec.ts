@@ -35,6 +35,24 @@ export const binRowSchema = z.strictObject({
   ...Object.fromEntries(BIN_COLUMNS.map(c => [c, finite.optional()])) as Record<BinColumn, z.ZodOptional<typeof finite>>
 })
 
+/** Most characters of a K-factor source text. */
+export const K_FACTOR_SOURCE_MAX = 2000
+
+/**
+ * zod schema of a study's per-bin K-factors (see shared/physics/impact/k-factors.ts): one K per
+ * bin (finite, > 0), optionally one uncertainty δK per bin (finite, ≥ 0, one standard deviation),
+ * where they came from, and whether δK is added in quadrature to the PDF band (default: reported apart).
+ */
+export const kFactorsSchema = z.strictObject({
+  values: z.array(finite.refine(v => v > 0, 'a K-factor must be > 0')),
+  errors: z.array(finite.refine(v => v >= 0, 'a K-factor uncertainty must be ≥ 0')).optional(),
+  source: z.string().max(K_FACTOR_SOURCE_MAX, `keep the source under ${K_FACTOR_SOURCE_MAX} characters`).optional(),
+  addErrorInQuadrature: z.boolean({ error: 'must be true or false' }).optional()
+})
+
+/** A study's K-factors as stored in its spec. */
+export type StudyKFactors = z.infer<typeof kFactorsSchema>
+
 /** zod schema of a study specification (structure only). */
 export const studySpecSchema = z.strictObject({
   title: z.string().max(200).optional(),
@@ -45,7 +63,8 @@ export const studySpecSchema = z.strictObject({
   fullRangeOrder: z.number().int('must be an integer').min(4, 'must be at least 4').max(256, 'must be at most 256').optional(),
   scaleFactor: z.number().min(0.25, 'must be at least 0.25').max(4, 'must be at most 4').optional(),
   renormalisationScaleFactor: z.number().min(0.25, 'must be at least 0.25').max(4, 'must be at most 4').optional(),
-  rangeMode: z.enum(['integrate', 'average']).optional()
+  rangeMode: z.enum(['integrate', 'average']).optional(),
+  kFactors: kFactorsSchema.optional()
 })
 
 /** A study specification as written by a user (optional fields may be missing). */
@@ -66,6 +85,8 @@ export interface StudySpec {
   /** κ_R in μ_R = κ_R μ for kernels with α_s (gg → H); default 1, independent of scaleFactor. */
   renormalisationScaleFactor?: number
   rangeMode: 'integrate' | 'average'
+  /** Per-bin K-factors multiplying every member's value before the bands; absent: none. */
+  kFactors?: StudyKFactors
 }
 
 /** One problem found in a study, located for the bins grid. */
@@ -90,7 +111,15 @@ export class StudySpecError extends RangeError {
   }
 }
 
+/** The bins-grid column of a K-factor field. */
+const K_COLUMNS: Record<string, string> = { values: 'kFactor', errors: 'kFactorError' }
+
 function issueAt(path: Array<string | number>, text: string): StudyIssue {
+  if (path[0] === 'kFactors' && typeof path[1] === 'string' && K_COLUMNS[path[1]] && typeof path[2] === 'number') {
+    const bin = path[2] + 1
+    const column = K_COLUMNS[path[1]]!
+    return { bin, column, path, message: `bin ${bin}, column ${column}: ${text}` }
+  }
   if (path[0] === 'bins' && typeof path[1] === 'number') {
     const bin = path[1] + 1
     const column = typeof path[2] === 'string' ? path[2] : undefined
@@ -179,6 +208,18 @@ function checkBin(row: BinRow, index: number, variables: readonly VariableSpec[]
   return issues
 }
 
+/** One K-factor (and one uncertainty, when given) per bin. */
+function checkKFactorCount(k: StudyKFactors, bins: number): StudyIssue[] {
+  const issues: StudyIssue[] = []
+  for (const field of ['values', 'errors'] as const) {
+    const list = k[field]
+    if (list === undefined || list.length === bins) continue
+    const what = field === 'values' ? 'K-factors' : 'K-factor uncertainties'
+    issues.push({ column: K_COLUMNS[field], path: ['kFactors', field], message: `kFactors.${field} (column ${K_COLUMNS[field]}): ${list.length} ${what} for ${bins} bins; give one per bin` })
+  }
+  return issues
+}
+
 /** Result of {@link checkStudySpec}. */
 export type StudyCheck = { ok: true, spec: StudySpec } | { ok: false, issues: StudyIssue[] }
 
@@ -203,6 +244,7 @@ export function checkStudySpec(input: unknown): StudyCheck {
   if (issues.length > 0) return { ok: false, issues }
   const variables = kernelVariables(def, options)
   doc.bins.forEach((row, i) => issues.push(...checkBin(row, i, variables)))
+  if (doc.kFactors) issues.push(...checkKFactorCount(doc.kFactors, doc.bins.length))
   if (issues.length > 0) return { ok: false, issues }
   return {
     ok: true,
@@ -215,7 +257,8 @@ export function checkStudySpec(input: unknown): StudyCheck {
       fullRangeOrder: doc.fullRangeOrder ?? 32,
       scaleFactor: doc.scaleFactor ?? 1,
       ...(doc.renormalisationScaleFactor !== undefined ? { renormalisationScaleFactor: doc.renormalisationScaleFactor } : {}),
-      rangeMode: doc.rangeMode ?? 'integrate'
+      rangeMode: doc.rangeMode ?? 'integrate',
+      ...(doc.kFactors ? { kFactors: doc.kFactors } : {})
     }
   }
 }

@@ -175,6 +175,23 @@ describe('sheaf kfactor', () => {
     })
   })
 
+  it('reads the K-factors a study carries, as the web app runs them; compute refuses such a study', async () => {
+    const study = JSON.parse(readFileSync(STUDY, 'utf8'))
+    const values = Array.from({ length: 7 }, (_, b) => 1 + 0.1 * b)
+    const withK = tmp.file('study-k.json', JSON.stringify({ ...study, kFactors: { values, errors: values.map(() => 0.02), source: 'invented ratios', addErrorInQuadrature: true } }))
+    const file = tmp.file('k-same.csv', `k,k_error\n${values.map(v => `${v},0.02`).join('\n')}\n`)
+    const fromStudy = JSON.parse((await sheaf(['kfactor', withK, HESSIAN])).stdout)
+    const fromFile = JSON.parse((await sheaf(['kfactor', STUDY, HESSIAN, '--k-factors', file, '--k-source', 'invented ratios', '--add-k-error'])).stdout)
+    expect(fromStudy.bins).toEqual(fromFile.bins)
+    expect(fromStudy.kErrorAddedInQuadrature).toBe(true)
+    const both = await sheaf(['kfactor', withK, HESSIAN, '--k-factors', file])
+    expect(both.code).toBe(2)
+    expect(oneLine(both)).toMatch(/carries its own K-factors/)
+    const compute = await sheaf(['compute', withK, HESSIAN])
+    expect(compute.code).toBe(1)
+    expect(oneLine(compute)).toMatch(/carries K-factors.*sheaf kfactor/)
+  })
+
   it.each([
     ['no K-factor file', [], 2, /kfactor needs --k-factors <file>/],
     ['a bad cell', ['--k-factors', 'BAD'], 1, /bad-k\.csv: line 3, column 1: k must be a number > 0; found "-1"/]
