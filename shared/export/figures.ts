@@ -394,13 +394,23 @@ export function bandFigure(input: BandFigureInput): Figure {
     layout.xaxis = houseAxis(input.variable, { ...xRange, title: { text: axisTitle(input.variable), standoff: 6 } })
     layout.yaxis = yAxis(1)
   }
-  if (input.note) layout.annotations = [noteAnnotation(input.note)]
+  if (input.note) {
+    const note = noteAnnotation(input.note)
+    layout.annotations = [note]
+    // a note on two or more lines pushes the frame down instead of running off the top
+    const lines = String(note.text).split('<br>').length
+    const margin = layout.margin as { t: number }
+    layout.margin = { ...margin, t: margin.t + (lines - 1) * 14 }
+  }
   return { data, layout }
 }
 
-/** The figure's note: above the frame at its right end, clear of the curves and the legend. */
-export function noteAnnotation(text: string): Record<string, unknown> {
-  return { name: 'note', text, xref: 'paper', yref: 'paper', x: 1, y: 1, xanchor: 'right', yanchor: 'bottom', yshift: 4, showarrow: false, font: { size: 11 }, align: 'right' }
+/** Characters a line of the note holds on the page's figure (about 700 px at 11 px). */
+const NOTE_WIDTH_CHARS = 100
+
+/** The figure's note: above the frame at its right end, clear of the curves and the legend; long notes wrap. */
+export function noteAnnotation(text: string, widthChars = NOTE_WIDTH_CHARS): Record<string, unknown> {
+  return { name: 'note', text: wrapTitle(text.replace(/<br>/g, ' '), widthChars), xref: 'paper', yref: 'paper', x: 1, y: 1, xanchor: 'right', yanchor: 'bottom', yshift: 4, showarrow: false, font: { size: 11 }, align: 'right' }
 }
 
 /** Diverging colours from −1 (tide) through 0 (white) to +1 (ember), our own scale. */
@@ -583,7 +593,17 @@ export function paperFigure(figure: Figure, s: FigureExportSettings, provenance?
     axis.tickfont = { size: Math.max(5, f - 1) }
     layout[key] = axis
   }
-  const annotations: Record<string, unknown>[] = ((layout.annotations as Record<string, unknown>[] | undefined) ?? []).map(a => ({ ...a, font: { ...(a.font as Record<string, unknown>), size: Math.max(5, f - 1) } }))
+  const noteSize = Math.max(5, f - 1)
+  let noteLines = 0
+  const annotations: Record<string, unknown>[] = ((layout.annotations as Record<string, unknown>[] | undefined) ?? []).map((a) => {
+    const font = { ...(a.font as Record<string, unknown>), size: noteSize }
+    if (a.name !== 'note') return { ...a, font }
+    // the note wrapped to the page's width, with room above the frame for its lines
+    const note = noteAnnotation(String(a.text), Math.max(20, Math.floor(width * 0.9 / (noteSize * 0.55))))
+    noteLines = String(note.text).split('<br>').length
+    return { ...note, font }
+  })
+  if (noteLines > 1) (layout.margin as { t: number }).t += Math.ceil((noteLines - 1) * noteSize * 1.3)
   if (footerLines && provenance) {
     // the footer is the layout's title placed at the image's bottom edge (titles take container
     // coordinates, annotations do not); a legend below the plot sits on top of it

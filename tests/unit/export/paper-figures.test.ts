@@ -57,6 +57,25 @@ describe('figures for a paper', () => {
     for (const line of footer.text.split('<br>')) expect(line.length).toBeLessThanOrEqual(Math.floor(244 / (8 * 0.55)))
   })
 
+  it('wraps a long note above the frame and makes room for its lines, on the page and on paper', () => {
+    const note = 'Hessian pairs, symmetric (Hessian at the set\'s 68 % CL) / Replicas, mean ± standard deviation (replica standard deviation at the set\'s 68 % CL), 68 % CL'
+    const input = { positions: { lo: [1, 2] }, variable: { label: 'x' }, observable: { label: 'F₂' }, series: [{ id: 'a', label: 'A', band: band([1, 2]) }] }
+    const short = bandFigure({ ...input, note: '68 % CL' })
+    const long = bandFigure({ ...input, note })
+    const text = (f: typeof long) => String((f.layout.annotations as Array<{ text: string }>)[0]!.text)
+    expect(text(long).split('<br>').length).toBe(2)
+    expect(text(long).replace(/<br>/g, ' ')).toBe(note)
+    const top = (f: typeof long) => (f.layout.margin as { t: number }).t
+    expect(top(long)).toBeGreaterThan(top(short))
+    const settings = { widthCm: FIGURE_WIDTHS_CM.single, aspect: 4 / 3, fontPt: 8, legend: 'below' as const, footer: false, dpi: 300 }
+    const paper = paperFigure(long, settings)
+    const lines = text(paper).split('<br>')
+    // 8.6 cm is 244 pt: at 7 pt about 57 characters a line
+    for (const line of lines) expect(line.length).toBeLessThanOrEqual(Math.floor(244 * 0.9 / (7 * 0.55)))
+    expect(lines.length).toBeGreaterThan(2)
+    expect(top(paper)).toBeGreaterThan(top(paperFigure(short, settings)))
+  })
+
   it('wraps a long title at spaces', () => {
     expect(wrapTitle('W charge asymmetry (W⁺ − W⁻)/(W⁺ + W⁻) of dσ/dy', 20)).toBe('W charge asymmetry<br>(W⁺ − W⁻)/(W⁺ + W⁻)<br>of dσ/dy')
   })
