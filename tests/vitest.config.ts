@@ -30,7 +30,10 @@ export default defineConfig({
         test: {
           name: 'browser', root, include: ['tests/browser/**/*.test.ts'], environment: 'node',
           globalSetup: ['tests/support/global-setup.ts'],
-          testTimeout: 120_000, hookTimeout: 300_000, fileParallelism: false
+          testTimeout: 120_000, hookTimeout: 300_000, fileParallelism: false,
+          // A page waits on server round trips: on a busy two-core machine one second (the default
+          // wait of expect.poll) is too short for a click's answer to show. A bound, not a timing.
+          expect: { poll: { timeout: 15_000 } }
         }
       }
     ]
