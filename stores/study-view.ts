@@ -5,6 +5,7 @@ import type { AxisSpec, BinPositions } from '#shared/export/figures'
 import type { VariableName, VariableSpec } from '#shared/physics/kernels/registry'
 import type { BinRow as SpecBin } from '#shared/physics/study/spec'
 import type { BandJson } from '#shared/physics/uncertainty/band'
+import type { IntervalRule } from '#shared/physics/uncertainty/bands'
 import { PRESCRIPTION_LABELS } from '#shared/utils/prescriptions'
 
 // ── The bins grid of a study: which columns a kernel's variables give, and the conversions
@@ -271,9 +272,9 @@ export interface ResultDetail extends ResultRow {
   /** Which bins `spec.bins`, `bands` and `scaleVariation` hold (0-based offset, count, all bins). */
   bins?: { offset: number, limit: number, total: number }
   reporting: { prescription: string, clPercent: number, available: string[], setConfidenceLevelPercent: number }
-  bands: (BandJson & { prescription: string, clPercent: number, pdf: BandJson, alphas: number[] | null }) | null
-  /** Central member at μ_F = κ μ for each κ (values[k]), and the envelope about κ = 1: nominal ± up/down. */
-  scaleVariation: { kappas: number[], values: number[][], nominal: number[], up: number[], down: number[] } | null
+  bands: (BandJson & { prescription: string, clPercent: number, pdf: BandJson, alphas: number[] | null, interval?: IntervalRule }) | null
+  /** Central member at μ_F = κ μ for each κ (values[k]), and the envelope about κ = 1: nominal ± up/down; `label` says which scales moved. */
+  scaleVariation: { kappas: number[], values: number[][], nominal: number[], up: number[], down: number[], label?: string } | null
   trail: { reviews: TrailEntry[], events: TrailEntry[] }
   caution: string
 }

@@ -50,9 +50,12 @@
  * shared/physics/README.md, "Nuclear targets and isospin"), and `"modifications"`: functions R
  * built from the same terms, each listing the baseline pieces it multiplies (`"appliesTo"`); every
  * baseline piece must be covered exactly once. The baseline's sum rules are imposed again on the
- * bound proton.
+ * bound proton. A modification term's coefficients may depend on the nucleus
+ * (`{ "ofA": [ … ] }`, mass-number.ts), so that one document is a family: built for its own
+ * `target` by default, or for any nucleus asked for.
  */
 import { z } from 'zod'
+import { MassNumberCoefficientSchema } from './mass-number'
 
 const NAME_PATTERN = /^[A-Za-z_][A-Za-z0-9_.]*$/
 
@@ -67,6 +70,19 @@ export const TermSchema = z.object({
   a: CoefficientSchema,
   b: CoefficientSchema,
   c: z.array(CoefficientSchema).max(12).default([])
+}).strict()
+
+/** A coefficient of a nuclear-modification term: a number, a parameter name, or A-dependent ({ "ofA": … }, mass-number.ts). */
+export const ModificationCoefficientSchema = z.union([z.number(), z.string().regex(NAME_PATTERN), MassNumberCoefficientSchema], {
+  error: 'expected a number, the name of a fit parameter, or an A-dependent coefficient { "ofA": [ { "k", "power", "c", "excess" } ] }'
+})
+
+/** A term of a nuclear modification R: as a term, each coefficient possibly A-dependent. */
+export const ModificationTermSchema = z.object({
+  A: ModificationCoefficientSchema.default(1),
+  a: ModificationCoefficientSchema,
+  b: ModificationCoefficientSchema,
+  c: z.array(ModificationCoefficientSchema).max(12).default([])
 }).strict()
 
 const FlavourKey = z.string().regex(/^(-?[1-6]|21)$/, { error: 'flavour keys are PDG codes as strings: "1".."6", "-1".."-6" or "21"' })
@@ -179,7 +195,7 @@ export const NuclearModificationSchema = z.object({
   modifications: z.array(z.object({
     id: z.string().regex(NAME_PATTERN),
     appliesTo: z.array(z.string()).min(1),
-    terms: z.array(TermSchema).min(1)
+    terms: z.array(ModificationTermSchema).min(1)
   }).strict()).min(1),
   members: MembersSpecSchema.optional(),
   grid: GridSpecSchema.optional()
@@ -187,6 +203,8 @@ export const NuclearModificationSchema = z.object({
 
 /** A term as written in a document. */
 export type TermDoc = z.infer<typeof TermSchema>
+/** A nuclear-modification term as written (coefficients possibly A-dependent). */
+export type ModificationTermDoc = z.infer<typeof ModificationTermSchema>
 /** A piece as written in a document. */
 export type PieceDoc = z.infer<typeof PieceSchema>
 /** A validated parametrised-input document. */
