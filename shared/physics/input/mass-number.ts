@@ -61,6 +61,17 @@ export interface MassNumberRef {
 
 const plain = (ref: PlainRef, params: ArrayLike<number>) => (typeof ref === 'number' ? ref : params[ref.param]!)
 
+/** 1 + Σ_m coefficients[m−1]·base^m. */
+function polynomial(coefficients: readonly PlainRef[], base: number, params: ArrayLike<number>): number {
+  let poly = 1
+  let w = 1
+  for (const c of coefficients) {
+    w *= base
+    poly += plain(c, params) * w
+  }
+  return poly
+}
+
 /**
  * The value of an A-dependent coefficient at parameter vector `params` (NaN or ±∞ when the
  * parameters make it so; the feasibility checks report that). A single term with k only and no
@@ -76,24 +87,8 @@ export function massNumberValue(ref: MassNumberRef, params: ArrayLike<number>): 
     let value = plain(t.k, params)
     const p = plain(t.power, params)
     if (p !== 0) value *= Math.pow(a, p)
-    if (t.c.length > 0) {
-      let poly = 1
-      let w = 1
-      for (const c of t.c) {
-        w *= inverseCubeRoot
-        poly += plain(c, params) * w
-      }
-      value *= poly
-    }
-    if (t.excess.length > 0) {
-      let poly = 1
-      let w = 1
-      for (const e of t.excess) {
-        w *= excess
-        poly += plain(e, params) * w
-      }
-      value *= poly
-    }
+    if (t.c.length > 0) value *= polynomial(t.c, inverseCubeRoot, params)
+    if (t.excess.length > 0) value *= polynomial(t.excess, excess, params)
     sum += value
   }
   return sum

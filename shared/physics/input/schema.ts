@@ -64,26 +64,25 @@ export const CoefficientSchema = z.union([z.number(), z.string().regex(NAME_PATT
   error: 'expected a number or the name of a fit parameter (letters, digits, _ and ., not starting with a digit)'
 })
 
-/** One term A·x^a·(1−x)^b·(1 + Σ c_k x^{k/2}) of x·f. */
-export const TermSchema = z.object({
-  A: CoefficientSchema.default(1),
-  a: CoefficientSchema,
-  b: CoefficientSchema,
-  c: z.array(CoefficientSchema).max(12).default([])
+/** A term A·x^a·(1−x)^b·(1 + Σ c_k x^{k/2}) whose coefficients follow `coefficient`. */
+const termOf = <C extends typeof CoefficientSchema | typeof ModificationCoefficientSchema>(coefficient: C) => z.object({
+  // Every coefficient schema accepts the number 1: the default amplitude.
+  A: (coefficient as typeof CoefficientSchema).default(1) as unknown as z.ZodDefault<C>,
+  a: coefficient,
+  b: coefficient,
+  c: z.array(coefficient).max(12).default([])
 }).strict()
 
+/** One term A·x^a·(1−x)^b·(1 + Σ c_k x^{k/2}) of x·f. */
+export const TermSchema = termOf(CoefficientSchema)
+
 /** A coefficient of a nuclear-modification term: a number, a parameter name, or A-dependent ({ "ofA": … }, mass-number.ts). */
-export const ModificationCoefficientSchema = z.union([z.number(), z.string().regex(NAME_PATTERN), MassNumberCoefficientSchema], {
+export const ModificationCoefficientSchema = z.union([...CoefficientSchema.options, MassNumberCoefficientSchema], {
   error: 'expected a number, the name of a fit parameter, or an A-dependent coefficient { "ofA": [ { "k", "power", "c", "excess" } ] }'
 })
 
 /** A term of a nuclear modification R: as a term, each coefficient possibly A-dependent. */
-export const ModificationTermSchema = z.object({
-  A: ModificationCoefficientSchema.default(1),
-  a: ModificationCoefficientSchema,
-  b: ModificationCoefficientSchema,
-  c: z.array(ModificationCoefficientSchema).max(12).default([])
-}).strict()
+export const ModificationTermSchema = termOf(ModificationCoefficientSchema)
 
 const FlavourKey = z.string().regex(/^(-?[1-6]|21)$/, { error: 'flavour keys are PDG codes as strings: "1".."6", "-1".."-6" or "21"' })
 

@@ -3,10 +3,9 @@
 // library under the family with their own names, targets and A-dependence; bad nuclei are
 // refused at once with their place and nothing is stored or queued.
 import { readFileSync } from 'node:fs'
-import { and, eq } from 'drizzle-orm'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { tables as t, testDB } from '../../support/db'
 import { createWorkspace, type TestWorkspace } from '../../support/users'
+import { buildTraces, waitForBuild as waitForBuildOf } from './build-helpers'
 
 let ws: TestWorkspace
 const fit = (name: string) => JSON.parse(readFileSync(new URL(`../../../samples/fits/${name}`, import.meta.url), 'utf8'))
@@ -19,24 +18,8 @@ beforeAll(async () => {
   ws = await createWorkspace('Nuclear families')
 })
 
-async function traces() {
-  const db = testDB()
-  const rows = await db.select({ id: t.setBuilds.id }).from(t.setBuilds).where(eq(t.setBuilds.workspaceId, ws.id))
-  const audits = await db.select({ id: t.auditEvents.id }).from(t.auditEvents)
-    .where(and(eq(t.auditEvents.workspaceId, ws.id), eq(t.auditEvents.action, 'set.build-queued')))
-  return { rows: rows.length, audits: audits.length }
-}
-
-async function waitForBuild(buildId: string, ms = 90_000) {
-  const deadline = Date.now() + ms
-  for (;;) {
-    const res = await ws.viewer.client.get(`${builds()}/${buildId}`)
-    expect(res.status).toBe(200)
-    if (['done', 'failed', 'cancelled'].includes(res.body.state)) return res.body
-    if (Date.now() > deadline) throw new Error(`build still ${res.body.state}`)
-    await new Promise(r => setTimeout(r, 200))
-  }
-}
+const traces = () => buildTraces(ws.id)
+const waitForBuild = (buildId: string) => waitForBuildOf(ws.viewer.client, ws.id, buildId)
 
 describe('building a nuclear family for a list of nuclei', () => {
   it('builds C, Ar, Fe and Pb in one job: four sets of the family, progress over all 92 members', async () => {

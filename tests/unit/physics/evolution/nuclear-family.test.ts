@@ -12,6 +12,7 @@ import { writeSetFile } from '~/shared/physics/sets/write'
 import { buildPlan, evaluatePlan } from '~/shared/physics/study/plan'
 import { parseStudySpec } from '~/shared/physics/study/spec'
 import type { ErrorSet } from '~/shared/physics/types'
+import { centralOnly, unitModification } from '../nuclear-fixtures'
 
 const text = (f: string) => readFileSync(`samples/fits/${f}`, 'utf8')
 const load = (f: string) => parseInputText(text(f), f)
@@ -86,15 +87,9 @@ describe('a nuclear family: one modification fit and covariance, members for any
   }, 60_000)
 
   it('a modification of 1 everywhere gives bound protons equal to the free proton and nuclear ratios of exactly 1', async () => {
-    const doc = JSON.parse(text('ostrand-pb24.json'))
-    doc.name = 'Unit-R'
-    doc.parameters = []
-    delete doc.covariance
-    delete doc.members
-    for (const m of doc.modifications) m.terms = [{ A: 1, a: 0, b: 0 }]
-    const one = parseInputDocument(doc, 'unit.json')
-    const request = { type: 'parameters' as const, kind: 'hessian-pairs' as const, confidenceLevelPercent: 68, vectors: [new Float64Array()], description: 'central only' }
-    const baseline = await buildErrorSet(compileInput(quillon), { ...request, vectors: [compileInput(quillon).central] }, coarse)
+    const one = unitModification()
+    const request = centralOnly()
+    const baseline = await buildErrorSet(compileInput(quillon), centralOnly(compileInput(quillon).central), coarse)
     for (const nucleus of [{ z: 26, a: 56 }, { z: 82, a: 208 }]) {
       const set = await buildErrorSet(compileInput(one, quillon, 'unit.json', { nucleus }), request, coarse)
       expect(sameValues(set, baseline)).toBe(true)

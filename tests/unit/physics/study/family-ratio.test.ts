@@ -1,13 +1,16 @@
 import { readFileSync } from 'node:fs'
 import { describe, expect, it } from 'vitest'
 import { buildNuclearFamily } from '~/shared/physics/evolution/build-family'
-import { parseInputDocument, parseInputText } from '~/shared/physics/input/parse'
+import { buildErrorSet } from '~/shared/physics/evolution/build-set'
+import { compileInput } from '~/shared/physics/input/model'
+import { parseInputText } from '~/shared/physics/input/parse'
 import { kernelLabel } from '~/shared/physics/kernels/registry'
 import { evaluateDirect } from '~/shared/physics/study/direct'
 import { buildPlan, evaluatePlan } from '~/shared/physics/study/plan'
 import { parseStudySpec } from '~/shared/physics/study/spec'
 import { computeBands } from '~/shared/physics/uncertainty/bands'
 import { expectClose } from '../close'
+import { centralOnly, unitModification } from '../nuclear-fixtures'
 
 const text = (f: string) => readFileSync(`samples/fits/${f}`, 'utf8')
 const quillon = parseInputText(text('quillon-22.json'), 'quillon-22.json')
@@ -43,15 +46,8 @@ describe('ratios of two targets of one nuclear family, member by member', () => 
   })
 
   it('with a modification of 1 everywhere, carbon over the deuteron and iron over p + n (isoscalar) are exactly 1 and the isospin effect of iron respectively', async () => {
-    const doc = JSON.parse(text('ostrand-pb24.json'))
-    doc.parameters = []
-    delete doc.covariance
-    delete doc.members
-    for (const m of doc.modifications) m.terms = [{ A: 1, a: 0, b: 0 }]
-    const one = parseInputDocument(doc, 'unit.json')
-    const request = { type: 'parameters' as const, kind: 'hessian-pairs' as const, confidenceLevelPercent: 68, vectors: [new Float64Array()], description: 'central only' }
-    const { buildErrorSet } = await import('~/shared/physics/evolution/build-set')
-    const { compileInput } = await import('~/shared/physics/input/model')
+    const one = unitModification()
+    const request = centralOnly()
     const set = async (z: number, a: number) => buildErrorSet(compileInput(one, quillon, 'unit.json', { nucleus: { z, a } }), request, coarse)
     const [d, c, fe] = [await set(1, 2), await set(6, 12), await set(26, 56)]
     const carbon = parseStudySpec({ kernel: 'nuclear-ratio', options: { base: 'dis-nc-f2', nucleus: { z: 6, a: 12 }, denominator: 'deuteron' }, bins })
@@ -65,10 +61,8 @@ describe('ratios of two targets of one nuclear family, member by member', () => 
   })
 
   it('σ_νFe/σ_νN per nucleon: the charged-current cross-section as a nuclear-ratio base, over an isoscalar nucleon', async () => {
-    const { buildErrorSet } = await import('~/shared/physics/evolution/build-set')
-    const { compileInput } = await import('~/shared/physics/input/model')
     const model = compileInput(quillon)
-    const proton = await buildErrorSet(model, { type: 'parameters', kind: 'hessian-pairs', confidenceLevelPercent: 90, vectors: [model.central], description: 'central only' }, coarse)
+    const proton = await buildErrorSet(model, centralOnly(model.central), coarse)
     const points = [{ x: 0.1, y: 0.5 }, { x: 0.4, y: 0.3 }]
     const spec = parseStudySpec({ kernel: 'nuclear-ratio', options: { base: 'dis-cc-d2sigma', beam: 'neutrino', beamEnergyGeV: 100, nucleus: { z: 26, a: 56 }, denominator: 'isoscalar' }, bins: points })
     const r = evaluatePlan(buildPlan(spec, proton), proton.members)
