@@ -73,7 +73,8 @@ describe('SetsUploadForm', () => {
     await choose(wrapper, new File([new Uint8Array(2 ** 20 + 1)], 'big.set'))
     await wrapper.find('form').trigger('submit')
     expect(sent).toHaveLength(0)
-    expect(wrapper.find('[role=alert]').text()).toBe('big.set is 1.0 MiB; the limit is 1.0 MiB.')
+    // Sizes in SI units (shared/utils/file-size.ts): 2^20 + 1 and 2^20 bytes both read 1.0 MB.
+    expect(wrapper.find('[role=alert]').text()).toBe('big.set is 1.0 MB; the limit is 1.0 MB.')
     await choose(wrapper, new File(['x'], 'small.set'))
     await wrapper.find('form').trigger('submit')
     await flushPromises()
