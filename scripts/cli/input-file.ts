@@ -22,7 +22,7 @@ function readDocument(io: CliIo, file: string): InputDocument {
  * @throws BadInputError "<file>: <JSON path>: <problem>" (the engine's InputError), or naming the
  * missing baseline.
  */
-export function loadModel(io: CliIo, file: string, baselineFile?: string): InputModel {
+export function loadModel(io: CliIo, file: string, baselineFile?: string, nucleus?: { z: number, a: number }): InputModel {
   const document = readDocument(io, file)
   let baseline: InputDocument | undefined
   if (document.kind === 'nuclear') {
@@ -33,7 +33,7 @@ export function loadModel(io: CliIo, file: string, baselineFile?: string): Input
     baseline = readDocument(io, named)
   }
   try {
-    return compileInput(document, baseline, file)
+    return compileInput(document, baseline, file, nucleus ? { nucleus } : {})
   } catch (e) {
     throw new BadInputError((e as Error).message)
   }

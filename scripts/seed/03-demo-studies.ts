@@ -37,21 +37,29 @@ export interface DemoStudy {
 
 const DEMO_NOTE = 'Demo data: the Kestrel Forward Collaboration, its people and the error sets are invented; the numbers are Sheaf\'s leading-order predictions, not physics results.'
 const FE = { type: 'nucleus', z: 26, a: 56 } as const
+const AR = { type: 'nucleus', z: 18, a: 40 } as const
 
 export const DEMO_STUDIES: DemoStudy[] = [
   {
     name: 'KNU-04 · ν Fe charged-current F₂',
-    description: `F₂ per nucleon of neutrino charged-current scattering on iron (Z = 26, A = 56, neutron excess by isospin) at Q² = 10, 30 and 100 GeV², for the invented Kestrel ν-Fe flux-normalisation note. The proton sets are used with the iron target: the library's only nuclear set is for lead, and the engine does not rescale a nuclear modification to another nucleus. ${DEMO_NOTE}`,
+    description: `F₂ per nucleon of neutrino charged-current scattering on iron (Z = 26, A = 56, neutron excess by isospin) at Q² = 10, 30 and 100 GeV², for the invented Kestrel ν-Fe flux-normalisation note. On Ostrand-25-Fe56, the iron set of the invented A-dependent Ostrand-25 family (bound-proton densities; its band is the nuclear-modification uncertainty, the Quillon-22 baseline held at its central values), and on the free-proton sets with the iron target (isospin only, no nuclear modification). ${DEMO_NOTE}`,
     binsFile: 'neutrino-fe-x-q2.csv',
     spec: { title: 'ν Fe charged-current F₂ per nucleon', kernel: 'dis-cc-f2', options: { beam: 'neutrino', target: FE } },
-    sets: ['hessian', 'replicas']
+    sets: ['iron', 'hessian', 'replicas']
   },
   {
     name: 'KNU-04 · ν Fe charged-current xF₃',
-    description: `xF₃ per nucleon of neutrino charged-current scattering on iron (Z = 26, A = 56), same bins as the F₂ study; its integral over x tests the Gross–Llewellyn Smith sum rule. Proton sets with the iron target, as for F₂. ${DEMO_NOTE}`,
+    description: `xF₃ per nucleon of neutrino charged-current scattering on iron (Z = 26, A = 56), same bins as the F₂ study; its integral over x tests the Gross–Llewellyn Smith sum rule. On the iron set Ostrand-25-Fe56 and on the proton sets with the iron target, as for F₂. ${DEMO_NOTE}`,
     binsFile: 'neutrino-fe-x-q2.csv',
     spec: { title: 'ν Fe charged-current xF₃ per nucleon', kernel: 'dis-cc-xf3', options: { beam: 'neutrino', target: FE } },
-    sets: ['hessian', 'replicas']
+    sets: ['iron', 'hessian', 'replicas']
+  },
+  {
+    name: 'KNU-05 · ν Ar charged-current F₂',
+    description: `F₂ per nucleon of neutrino charged-current scattering on argon (Z = 18, A = 40) on the bins of the iron study, for an invented Kestrel liquid-argon detector: on Ostrand-25-Ar40, the argon set of the same invented family (built from the same fit as the iron and lead sets), and on Quillon-22 with the argon target (isospin only). ${DEMO_NOTE}`,
+    binsFile: 'neutrino-fe-x-q2.csv',
+    spec: { title: 'ν Ar charged-current F₂ per nucleon', kernel: 'dis-cc-f2', options: { beam: 'neutrino', target: AR } },
+    sets: ['argon', 'hessian']
   },
   {
     name: 'KHM-13 · High-mass Drell–Yan background',
@@ -89,10 +97,10 @@ export const DEMO_STUDIES: DemoStudy[] = [
   },
   {
     name: 'KHI-08 · p Pb / p p Drell–Yan nuclear ratio',
-    description: `Per-nucleon ratio of Drell–Yan at M = 20 GeV in p Pb over p p at √s = 8.16 TeV in 16 rapidity bins (negative y: lead-going side), with the Ostrand-Pb24 lead modification varying and Quillon-22 (its baseline) held at its central member. ${DEMO_NOTE}`,
+    description: `Per-nucleon ratio of Drell–Yan at M = 20 GeV in p Pb over p p at √s = 8.16 TeV in 16 rapidity bins (negative y: lead-going side), with the lead set Ostrand-25-Pb208 of the invented A-dependent Ostrand-25 family varying and Quillon-22 (its baseline) held at its central member. ${DEMO_NOTE}`,
     binsFile: 'ppb-drell-yan-rapidity.csv',
     spec: { title: 'p Pb / p p Drell–Yan per nucleon, M = 20 GeV, √s = 8.16 TeV', kernel: 'nuclear-ratio', options: { base: 'drell-yan', nucleus: { z: 82, a: 208 }, sqrtSGeV: 8160 } },
-    sets: ['nuclear'],
+    sets: ['lead'],
     second: 'hessian'
   }
 ]
@@ -139,6 +147,12 @@ function readMeasurement(m: NonNullable<DemoStudy['measurement']>): MeasurementD
 
 async function findOrCreateStudy(db: DB, workspaceId: string, analyst: string, d: DemoStudy, sets: ErrorSetRow[], second: ErrorSetRow | null): Promise<Study> {
   const [existing] = await db.select().from(t.studies).where(and(eq(t.studies.workspaceId, workspaceId), eq(t.studies.name, d.name)))
+  // A study seeded before a demo set joined it gets that set added (once); nothing else changes.
+  const missing = existing ? sets.filter(s => !existing.setIds.includes(s.id)) : []
+  if (existing && missing.length) {
+    const [updated] = await db.update(t.studies).set({ setIds: [...existing.setIds, ...missing.map(s => s.id)] }).where(eq(t.studies.id, existing.id)).returning()
+    return updated!
+  }
   if (existing) return existing
   const spec = await demoSpec(d)
   const { reachProblems } = await import('../../server/domain/studies/check')

@@ -58,6 +58,11 @@ export interface SetBuildRequest {
   baseline?: unknown
   members?: unknown
   grid?: unknown
+  /**
+   * A nuclear family built for several nuclei in one job: one set per entry, named `name`, in
+   * this order (checked and named when the build was requested).
+   */
+  nuclei?: Array<{ z: number, a: number, name: string }>
 }
 
 /**

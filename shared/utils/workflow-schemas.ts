@@ -135,7 +135,19 @@ export const setBuildSchema = z.object({
   /** Hessian (tolerance) or replicas (count, seed); overrides the document's `members`. */
   members: MembersSpecSchema.optional(),
   /** Output grid; overrides the document's `grid`. */
-  grid: GridSpecSchema.optional()
+  grid: GridSpecSchema.optional(),
+  /**
+   * For a nuclear modification: build it for these nuclei, one set each, in one job. Each entry
+   * is an element symbol of a usual target ("Fe" = ⁵⁶Fe, "D" the deuteron) or { z, a, name? }.
+   */
+  nuclei: z.array(z.union([
+    storableString().trim().min(1, 'A nucleus symbol cannot be empty').max(8, 'A nucleus symbol is at most 8 characters'),
+    z.object({
+      z: z.number({ error: 'Z is a whole number' }).int('Z is a whole number'),
+      a: z.number({ error: 'A is a whole number' }).int('A is a whole number'),
+      name: setNameSchema.optional()
+    }).strict()
+  ], { error: 'Each nucleus is an element symbol ("Fe") or { "z": 26, "a": 56 }' })).min(1, 'Give at least one nucleus').max(12, 'Build at most 12 nuclei in one job').optional()
 }).strict()
 
 /** Comparison of several sets' latest results of one study. */

@@ -9,7 +9,7 @@ import { fileURLToPath } from 'node:url'
 import { and, count, eq, inArray } from 'drizzle-orm'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_USERS, DEMO_WORKSPACE } from '../../scripts/seed/01-demo-users'
-import { DEMO_SETS } from '../../scripts/seed/02-demo-sets'
+import { DEMO_FAMILY, DEMO_SETS } from '../../scripts/seed/02-demo-sets'
 import { DEMO_STUDIES } from '../../scripts/seed/03-demo-studies'
 import { bytesToFloat64 } from '../../server/domain/results/float64'
 import { loadErrorSet } from '../../server/domain/sets/store'
@@ -89,19 +89,23 @@ describe('demo seed', () => {
     expect(after).toEqual(before)
   })
 
-  it('builds the three invented families with the engine from samples/fits', async () => {
+  it('builds the invented proton sets and the A-dependent nuclear family for C, Ar, Fe and Pb with the engine from samples/fits', async () => {
     const quillon = fit('quillon-22.json')
     const brindle = fit('brindle-mc-1.json')
-    const ostrand = fit('ostrand-pb24.json')
-    // Invented fits: 21 Quillon parameters and 10 Ostrand parameters as their descriptions say.
+    const ostrand = fit('ostrand-25.json')
+    // Invented fits: 21 Quillon parameters and 11 Ostrand-25 parameters as their descriptions say.
     expect(quillon.parameters).toHaveLength(21)
-    expect(ostrand.parameters).toHaveLength(10)
+    expect(ostrand.parameters).toHaveLength(11)
+    const symbol: Record<number, string> = { 6: 'C', 18: 'Ar', 26: 'Fe', 82: 'Pb' }
     const expected = [
       { name: quillon.name, version: quillon.version, kind: 'hessian-pairs', members: 1 + 2 * quillon.parameters.length, cl: 90, target: { type: 'proton' } },
       { name: brindle.name, version: brindle.version, kind: 'replicas', members: 1 + brindle.members.count, cl: 68, target: { type: 'proton' } },
-      { name: ostrand.name, version: ostrand.version, kind: 'hessian-pairs', members: 1 + 2 * ostrand.parameters.length, cl: 68, target: { type: 'nucleus', z: 82, a: 208 } }
+      ...DEMO_FAMILY.nuclei.map(n => ({
+        name: `${ostrand.name}-${symbol[n.z]}${n.a}`, version: ostrand.version, kind: 'hessian-pairs', members: 1 + 2 * ostrand.parameters.length, cl: 68, target: { type: 'nucleus', z: n.z, a: n.a }
+      }))
     ]
-    expect(DEMO_SETS).toHaveLength(3)
+    expect(DEMO_SETS).toHaveLength(2)
+    expect(DEMO_FAMILY.nuclei.map(n => symbol[n.z])).toEqual(['C', 'Ar', 'Fe', 'Pb'])
     const [analyst] = await db.select({ id: t.users.id }).from(t.users).where(eq(t.users.email, DEMO_USERS[1]!.email))
     for (const e of expected) {
       const row = await setByName(e.name)
@@ -116,6 +120,13 @@ describe('demo seed', () => {
     }
     const brindleSet = await loadErrorSet(db, (await setByName(brindle.name)).id)
     expect(brindleSet.header.provenance).toContain(`seed ${brindle.members.seed}`)
+    // Each nucleus's set says which nucleus and which A-dependence it was built with.
+    const ironRow = await setByName(`${ostrand.name}-Fe56`)
+    const ironSet = await loadErrorSet(db, ironRow.id)
+    expect(ironSet.header.family).toBe(ostrand.family)
+    expect(ironSet.header.provenance).toMatch(/nucleus Z = 26, A = 56 from family Ostrand .*A-dependence/)
+    // The neutrino iron studies run on the iron set.
+    for (const name of ['KNU-04 · ν Fe charged-current F₂', 'KNU-04 · ν Fe charged-current xF₃']) expect((await demoStudy(name)).setIds).toContain(ironRow.id)
   })
 
   it('stores every demo study with a finished result on each of its sets', async () => {

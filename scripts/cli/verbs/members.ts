@@ -4,7 +4,8 @@
  */
 import jStat from 'jstat'
 import { buildErrorSet, type MemberRequest } from '../../../shared/physics/evolution'
-import type { InputModel } from '../../../shared/physics/input'
+import { nucleusProblem, type InputModel } from '../../../shared/physics/input'
+import { nucleusSetName, usualNucleus } from '../../../shared/physics/nuclei'
 import { numberOption, parseVerbArgs, stringOption, type VerbSpec } from '../args'
 import { BadInputError, UsageError } from '../errors'
 import type { CliIo } from '../io'
@@ -33,6 +34,9 @@ Options:
                      Gaussian coverage of ±T, 68 for T = 1; for --replicas 68)
   --out <set-file>   the set file to write (required)
   --baseline <file>  baseline input of a nuclear modification (default: its "baseline.file")
+  --nucleus <N>      build a nuclear modification (family) for this nucleus instead of its own
+                     target: a symbol of a usual target (C, Ar, Fe, Pb, D …) or Z:A (26:56); the
+                     set is named <input name>-<symbol><A>
   -h, --help         this text`,
   options: {
     hessian: { type: 'string' },
@@ -40,7 +44,8 @@ Options:
     seed: { type: 'string' },
     cl: { type: 'string' },
     out: { type: 'string' },
-    baseline: { type: 'string' }
+    baseline: { type: 'string' },
+    nucleus: { type: 'string' }
   },
   positionals: { min: 1, max: 1, what: 'input file' }
 }
@@ -53,6 +58,16 @@ Options:
 export function hessianClPercent(tolerance: number): number {
   if (tolerance === 1) return 68
   return 100 * (2 * jStat.normal.cdf(tolerance, 0, 1) - 1)
+}
+
+/** --nucleus: a usual target's symbol or Z:A. */
+function nucleusOption(text: string): { z: number, a: number } {
+  const za = /^(\d+):(\d+)$/.exec(text.trim())
+  const nucleus = za ? { z: Number(za[1]), a: Number(za[2]) } : usualNucleus(text.trim())
+  if (!nucleus) throw new UsageError(`members: --nucleus "${text}" is neither Z:A (e.g. 26:56) nor a usual target symbol (C, Ar, Fe, Pb, D, …).`)
+  const problem = nucleusProblem(nucleus)
+  if (problem) throw new UsageError(`members: --nucleus ${text}: ${problem}.`)
+  return nucleus
 }
 
 function memberRequest(args: ReturnType<typeof parseVerbArgs>, model: InputModel): MemberRequest {
@@ -89,7 +104,10 @@ export async function runMembers(argv: readonly string[], io: CliIo): Promise<nu
   const out = stringOption(args, 'out')
   if (out === undefined) throw new UsageError(`members needs --out <set-file>; see 'sheaf members --help'.`)
   const file = args.positionals[0]!
-  const model = loadModel(io, file, stringOption(args, 'baseline'))
+  const nucleusText = stringOption(args, 'nucleus')
+  const nucleus = nucleusText === undefined ? undefined : nucleusOption(nucleusText)
+  const loaded = loadModel(io, file, stringOption(args, 'baseline'), nucleus)
+  const model = nucleus ? { ...loaded, name: nucleusSetName(loaded.name, nucleus) } : loaded
   const request = memberRequest(args, model)
   let set
   try {

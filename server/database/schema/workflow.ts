@@ -95,6 +95,11 @@ export const setBuilds = pgTable('set_builds', {
   progressDone: integer().notNull().default(0),
   progressTotal: integer().notNull().default(0),
   setId: uuid().references(() => errorSets.id, { onDelete: 'set null' }),
+  /**
+   * Every set the build wrote, in request order: one for a single fit, one per nucleus for a
+   * nuclear family built for several nuclei (setId is then the first).
+   */
+  setIds: uuid().array().notNull().default(sql`'{}'::uuid[]`),
   createdAt: createdAt(),
   updatedAt: updatedAt()
 }, t => [index('set_builds_workspace_id_idx').on(t.workspaceId)])

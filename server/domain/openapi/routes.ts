@@ -112,7 +112,7 @@ export const API_ROUTES: ApiRoute[] = [
   },
   { method: 'get', path: `${ws}/sets/{sid}/densities`, summary: 'x·f(x, Q²) of chosen flavours with the set\'s band', tag: 'sets', ...W('viewer'), query: 'densitiesQuerySchema' },
   { method: 'get', path: `${ws}/sets/{sid}/sum-rules`, summary: 'Momentum and valence sum rules of every member', tag: 'sets', ...W('viewer'), query: 'sumRulesQuerySchema' },
-  { method: 'post', path: `${ws}/sets/builds`, summary: 'Build an error set from a parametrised fit (queued)', tag: 'sets', ...W('analyst'), body: 'setBuildSchema', status: 201 },
+  { method: 'post', path: `${ws}/sets/builds`, summary: 'Build an error set from a parametrised fit (queued); a nuclear modification for a list of nuclei builds one set per nucleus in the same job', tag: 'sets', ...W('analyst'), body: 'setBuildSchema', status: 201 },
   { method: 'get', path: `${ws}/sets/builds/{bid}`, summary: 'A set build\'s state and progress', tag: 'sets', ...W('viewer') },
   { method: 'post', path: `${ws}/sets/builds/{bid}/cancel`, summary: 'Cancel a queued or running set build', tag: 'sets', ...W('analyst') },
   { method: 'post', path: `${ws}/sets/builds/{bid}/rerun`, summary: 'Run a failed or cancelled set build again (queued)', tag: 'sets', ...W('analyst'), status: 202 },

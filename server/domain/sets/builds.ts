@@ -11,6 +11,7 @@ import { buildSize, memberIssues, type BuildSize } from '../../../shared/physics
 import { compileInput, type InputModel } from '../../../shared/physics/input/model'
 import { parseInputDocument } from '../../../shared/physics/input/parse'
 import { BUILD_SET_QUEUE, type BuildSetPayload, type SetBuildRequest } from '../../../shared/queue/workflow'
+import { resolveNuclei, type NucleusEntry } from './build-nuclei'
 import { assertSetNameFree } from './library'
 import { assertQuota } from './store'
 
@@ -20,7 +21,8 @@ import { assertQuota } from './store'
  */
 export const publicSetBuild = (b: SetBuild & { queuePlace?: number | null }) => ({
   id: b.id, name: b.name, state: b.state, phase: b.phase, progress: { done: b.progressDone, total: b.progressTotal },
-  error: b.error, setId: b.setId, requestedBy: b.requestedBy, createdAt: b.createdAt,
+  error: b.error, setId: b.setId, setIds: b.setIds?.length ? b.setIds : (b.setId ? [b.setId] : []),
+  nuclei: b.request.nuclei ?? null, requestedBy: b.requestedBy, createdAt: b.createdAt,
   startedAt: b.startedAt, finishedAt: b.finishedAt, cancelRequested: b.cancelRequested,
   queuePlace: b.state === 'queued' ? (b.queuePlace ?? null) : null
 })
@@ -34,8 +36,11 @@ function inputRejection(err: InputError): never {
   })
 }
 
-/** The engine's model of a request (overrides applied), or 400/422 naming each JSON path. */
-function modelOf(request: SetBuildRequest): InputModel {
+/**
+ * The engine's model of a request (overrides applied), or 400/422 naming each JSON path; for a
+ * family build, of the nucleus `nucleus` (its problems named with the entry's place).
+ */
+function modelOf(request: SetBuildRequest, nucleus?: { z: number, a: number, at: string }): InputModel {
   try {
     const doc = parseInputDocument(request.input, 'input')
     let baseline
@@ -47,9 +52,11 @@ function modelOf(request: SetBuildRequest): InputModel {
       if (baseline.kind !== 'parametrised') throw new InputError('baseline', [{ path: 'format', message: 'the baseline must be a sheaf.parametrised-input document' }])
     } else if (request.baseline !== undefined) {
       throw new InputError('request', [{ path: 'baseline', message: 'a baseline belongs only to a nuclear modification (sheaf.nuclear-modification); this input is a parametrised input' }])
+    } else if (request.nuclei !== undefined || nucleus) {
+      throw new InputError('request', [{ path: 'nuclei', message: 'nuclei belong only to a nuclear modification (sheaf.nuclear-modification); this input is a parametrised input' }])
     }
     // Compiling binds every parameter reference and checks every term at the central values.
-    return compileInput(doc, baseline)
+    return compileInput(doc, baseline, nucleus ? `input for ${nucleus.at} (Z = ${nucleus.z}, A = ${nucleus.a})` : 'input', nucleus ? { nucleus } : {})
   } catch (err) {
     if (err instanceof InputError) inputRejection(err)
     if (err instanceof RangeError) fail(400, err.message, { issues: [{ message: err.message }] })
@@ -57,9 +64,19 @@ function modelOf(request: SetBuildRequest): InputModel {
   }
 }
 
-/** The size of the set a checked request will write (for the budget and the quota). */
+/** The models a request builds: one, or one per nucleus of a family build. */
+function modelsOf(request: SetBuildRequest): InputModel[] {
+  return request.nuclei ? request.nuclei.map((n, i) => modelOf(request, { z: n.z, a: n.a, at: `nuclei[${i}]` })) : [modelOf(request)]
+}
+
+/** The size of the set a checked request will write (for the budget and the quota); a family build's sets added up. */
 export function requestedBuildSize(request: SetBuildRequest): BuildSize {
-  return buildSize(modelOf(request))
+  return totalSize(modelsOf(request))
+}
+
+function totalSize(models: InputModel[]): BuildSize {
+  const sizes = models.map(m => buildSize(m))
+  return { ...sizes[0]!, members: sizes.reduce((n, z) => n + z.members, 0), values: sizes.reduce((n, z) => n + z.values, 0) }
 }
 
 /** About the bytes of a set file of `size` (8 per value; the header adds a few KiB). */
@@ -71,15 +88,24 @@ const fileBytes = (size: BuildSize) => 8 * size.values
  * evolution would refuse: divergent terms, grid, start scale, tolerance, covariance; each issue
  * with its JSON path in data.issues), the members block (400), the build budget (413: members ×
  * nodes × 13 flavours at most `limits.buildMaxValues`), then every member's parameters (422:
- * integrable terms, solvable sum rules, finite x·f at μ₀²). Returns the set name to use.
+ * integrable terms, solvable sum rules, finite x·f at μ₀²). With `nuclei` (a nuclear
+ * modification only, else 400 at `nuclei`) every check runs for every nucleus, the budget counts
+ * all their sets, and each problem names its entry (`nuclei[i]`). Returns the set name to use.
  */
-export function checkBuildRequest(body: { name?: string, input: unknown, baseline?: unknown, members?: unknown, grid?: unknown }, limits: Limits = LIMITS) {
-  const request = { input: withOverrides(body.input, body.members, body.grid), baseline: body.baseline, members: body.members, grid: body.grid } satisfies SetBuildRequest
+export function checkBuildRequest(body: { name?: string, input: unknown, baseline?: unknown, members?: unknown, grid?: unknown, nuclei?: NucleusEntry[] }, limits: Limits = LIMITS) {
+  const request: SetBuildRequest = { input: withOverrides(body.input, body.members, body.grid), baseline: body.baseline, members: body.members, grid: body.grid }
   const model = modelOf(request)
+  if (body.nuclei !== undefined) {
+    if (model.baseline === undefined) {
+      fail(400, 'nuclei: only a nuclear modification (sheaf.nuclear-modification) is built for a list of nuclei', { issues: [{ path: 'nuclei', message: 'this input is a parametrised input' }] })
+    }
+    request.nuclei = resolveNuclei(body.nuclei, body.name ?? model.name)
+  }
   if (model.members === undefined) {
     fail(400, 'Say how to publish the spread: Hessian (tolerance) or replicas (count and seed)', { issues: [{ message: 'no members given in the request or the document', path: 'members' }] })
   }
-  const size = buildSize(model)
+  const models = modelsOf(request)
+  const size = totalSize(models)
   if (size.values > limits.buildMaxValues) {
     const what = `${formatCount(size.members)} members × ${size.xNodes} x nodes × ${size.q2Nodes} Q² nodes × ${size.flavours} flavours = ${formatCount(size.values)} values (${formatBytes(fileBytes(size))})`
     fail(413, `This build is too large: ${what}; a build may hold at most ${formatCount(limits.buildMaxValues)} values (${formatBytes(8 * limits.buildMaxValues)}). Use fewer ${model.members.type === 'replicas' ? 'replicas' : 'parameters'} or a coarser grid`, {
@@ -87,8 +113,11 @@ export function checkBuildRequest(body: { name?: string, input: unknown, baselin
       size, maxValues: limits.buildMaxValues
     })
   }
-  const issues: InputIssue[] = memberIssues(model)
-  if (issues.length > 0) inputRejection(new InputError('input', issues))
+  models.forEach((m, i) => {
+    const issues: InputIssue[] = memberIssues(m)
+    const at = request.nuclei ? `input for nuclei[${i}] (Z = ${request.nuclei[i]!.z}, A = ${request.nuclei[i]!.a})` : 'input'
+    if (issues.length > 0) inputRejection(new InputError(at, issues))
+  })
   return { name: body.name ?? model.name, request }
 }
 
@@ -152,8 +181,8 @@ export async function withQueuePlaces<T extends SetBuild>(db: DB, builds: T[]): 
  */
 export async function startSetBuild(db: DB, queues: QueueSource, workspaceId: string, userId: string, name: string, request: SetBuildRequest, limits: Limits = LIMITS) {
   const model = modelOf(request)
-  await assertBuildNameFree(db, workspaceId, name, model.version)
-  const bytes = fileBytes(buildSize(model))
+  for (const setName of request.nuclei?.map(n => n.name) ?? [name]) await assertBuildNameFree(db, workspaceId, setName, model.version)
+  const bytes = fileBytes(requestedBuildSize(request))
   await assertQuota(db, workspaceId, bytes, `the set this build writes (about ${formatBytes(bytes)})`, limits.workspaceQuotaBytes)
   const row = await db.transaction(async (tx) => {
     const [inserted] = await tx.insert(t.setBuilds).values({ workspaceId, name, request, requestedBy: userId }).returning()
@@ -175,9 +204,12 @@ export async function startSetBuild(db: DB, queues: QueueSource, workspaceId: st
  */
 async function assertBuildNameFree(db: DB, workspaceId: string, name: string, version: string) {
   await assertSetNameFree(db, workspaceId, name, version)
-  const pending = await db.select({ id: t.setBuilds.id, request: t.setBuilds.request }).from(t.setBuilds)
-    .where(and(eq(t.setBuilds.workspaceId, workspaceId), eq(t.setBuilds.name, name), inArray(t.setBuilds.state, ['queued', 'running'])))
+  const pending = await db.select({ id: t.setBuilds.id, name: t.setBuilds.name, request: t.setBuilds.request }).from(t.setBuilds)
+    .where(and(eq(t.setBuilds.workspaceId, workspaceId), inArray(t.setBuilds.state, ['queued', 'running'])))
+  // The sets a pending build writes: its name, or one per nucleus of a family build.
+  const writes = (b: typeof pending[number]) => b.request.nuclei?.map(n => n.name) ?? [b.name]
   const clash = pending.find((b) => {
+    if (!writes(b).includes(name)) return false
     try { return modelOf(b.request).version === version } catch { return false }
   })
   if (clash) {

@@ -56,6 +56,24 @@ export function planForModel(model: InputModel, options: ModelEvolutionOptions =
 }
 
 /**
+ * What a nuclear set built from a family records about its nucleus (see shared/physics/README.md,
+ * "Nuclear families"): the nucleus, the family and the A-dependence used. Nothing for a proton
+ * fit, nor for a modification without A-dependence built for its own target, whose set stays
+ * byte for byte what it was before families existed.
+ */
+export function nucleusProvenance(model: InputModel): string[] {
+  const lines = model.massNumberDependence ?? []
+  const own = model.documentNucleus
+  if (model.target.type !== 'nucleus' || !own) return []
+  const other = own.z !== model.target.z || own.a !== model.target.a
+  if (lines.length === 0 && !other) return []
+  const where = `nucleus Z = ${model.target.z}, A = ${model.target.a} from family ${model.family} (document target Z = ${own.z}, A = ${own.a})`
+  return [lines.length > 0
+    ? `${where}; A-dependence (δ = (A − 2Z)/A): ${lines.join('; ')}`
+    : `${where}; A-dependence: none, the same modification for every nucleus`]
+}
+
+/**
  * One member of a model evolved onto the plan's grid.
  * @param params the parameter vector (default: the central values).
  * @param label names the member in error messages.
@@ -114,6 +132,7 @@ export async function buildErrorSet(model: InputModel, request?: MemberRequest, 
   const alphasMz = makeAlphas(model.alphas, model.scheme)(MZ_GEV * MZ_GEV)
   const provenance = [
     `${model.name} ${model.version} (family ${model.family})${model.baseline ? `, nuclear modification of ${model.baseline.name} ${model.baseline.version} at its central values` : ''}`,
+    ...nucleusProvenance(model),
     `members: ${description}`,
     `engine: Sheaf ${plan.method}`,
     ...(options.provenance ? [options.provenance] : [])

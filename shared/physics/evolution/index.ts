@@ -22,9 +22,11 @@ export { evolveMellin, type MellinPoint, type MellinSetup } from './mellin'
 
 // Sum rules after evolution
 export { gridSumRules, integrateX, type GridSumRules } from './sum-rules'
+export { nucleusSumRules, perNucleonGrid, type NucleusSumRules } from './nuclear-sum-rules'
 
 // Error sets from a fit
 export {
   buildErrorSet, evolveModel, planForModel,
-  type BuildSetOptions, type MemberRequest, type ModelEvolutionOptions
+  nucleusProvenance, type BuildSetOptions, type MemberRequest, type ModelEvolutionOptions
 } from './build-set'
+export { buildNuclearFamily, type FamilyBuildOptions, type FamilyNucleus } from './build-family'

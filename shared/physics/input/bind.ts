@@ -3,6 +3,7 @@
  * factors that impose the valence and momentum sum rules for that vector.
  */
 import { quarkSlots } from './flavours'
+import { massNumberValue } from './mass-number'
 import type { CoefficientRef, InputModel, ModelPiece } from './model'
 import { multiplyTerms, termMoment, type NumericTerm } from './moments'
 
@@ -23,7 +24,8 @@ export interface BoundInput {
 }
 
 function valueOf(ref: CoefficientRef, params: ArrayLike<number>): number {
-  return typeof ref === 'number' ? ref : params[ref.param]!
+  if (typeof ref === 'number') return ref
+  return 'param' in ref ? params[ref.param]! : massNumberValue(ref, params)
 }
 
 /**

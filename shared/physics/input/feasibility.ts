@@ -174,7 +174,12 @@ function termProblems(model: InputModel, params: ArrayLike<number>): TermProblem
       const factors = piece.terms[k]!
       const parameter = (e: 'a' | 'b') => {
         const ref = factors.length === 1 ? factors[0]![e] : undefined
-        return typeof ref === 'object' ? model.parameterNames[ref.param] : undefined
+        return typeof ref === 'object' && 'param' in ref ? model.parameterNames[ref.param] : undefined
+      }
+      const nonFinite = [t.A, ...t.c].find(v => !Number.isFinite(v))
+      if (nonFinite !== undefined) {
+        out.push({ path: source.path, value: nonFinite, rule: 'a coefficient of this term is not a finite number (an A-dependent coefficient can make it so: check its powers)', product })
+        return
       }
       if (!(t.b > -1)) out.push({ path: `${source.path}.b`, value: t.b, rule: 'x·f ∝ (1−x)^b is not integrable at x → 1; the engine needs b > −1', product, parameter: parameter('b') })
       if (!(t.a > -1)) {

@@ -6,10 +6,15 @@
 
 // Documents: schema, parsing, errors
 export {
-  CoefficientSchema, GridSpecSchema, MembersSpecSchema, NuclearModificationSchema, ParametrisedInputSchema,
-  PieceSchema, TermSchema,
-  type GridSpec, type MembersSpec, type NuclearModificationDoc, type ParametrisedInputDoc, type PieceDoc, type TermDoc
+  CoefficientSchema, GridSpecSchema, MembersSpecSchema, ModificationCoefficientSchema, ModificationTermSchema,
+  NuclearModificationSchema, ParametrisedInputSchema, PieceSchema, TermSchema,
+  type GridSpec, type MembersSpec, type ModificationTermDoc, type NuclearModificationDoc, type ParametrisedInputDoc,
+  type PieceDoc, type TermDoc
 } from './schema'
+export {
+  MassNumberCoefficientSchema, MassNumberTermSchema, describeMassNumberCoefficient, isMassNumberCoefficient,
+  massNumberValue, nucleusProblem, type MassNumberCoefficientDoc, type MassNumberRef, type Nucleus
+} from './mass-number'
 export { parseInputDocument, parseInputText, type InputDocument } from './parse'
 export { InputError, onlyPhysics, type InputIssue } from './errors'
 export {
@@ -20,7 +25,7 @@ export {
 // Model and parameter binding
 export {
   compileInput, compileParametrisedInput,
-  type CoefficientRef, type FactorRef, type InputModel, type ModelPiece, type SumRuleTargets, type TermSource
+  type CoefficientRef, type CompileOptions, type FactorRef, type InputModel, type ModelPiece, type SumRuleTargets, type TermSource
 } from './model'
 export { bindParameters, numericTerms, type BoundInput, type BoundPiece } from './bind'
 

@@ -11,10 +11,17 @@ import { InputError, type InputIssue } from './errors'
 import { centralTermIssues, q2GridIssues } from './feasibility'
 import { N_SLOTS, slotOf } from './flavours'
 import type { InputDocument } from './parse'
-import type { GridSpec, MembersSpec, ParametrisedInputDoc, TermDoc } from './schema'
+import {
+  describeMassNumberCoefficient, isMassNumberCoefficient, nucleusProblem,
+  type MassNumberRef, type ModificationCoefficientDoc, type Nucleus
+} from './mass-number'
+import type { GridSpec, MembersSpec, ModificationTermDoc, ParametrisedInputDoc, TermDoc } from './schema'
 
-/** A coefficient after compilation: a number, or `{ param: i }` = the i-th fit parameter. */
-export type CoefficientRef = number | { param: number }
+/**
+ * A coefficient after compilation: a number, `{ param: i }` = the i-th fit parameter, or an
+ * A-dependent coefficient fixed to one nucleus (mass-number.ts).
+ */
+export type CoefficientRef = number | { param: number } | MassNumberRef
 
 /** One factor A·x^a·(1−x)^b·(1 + Σ c_k x^{k/2}) with compiled coefficients. */
 export interface FactorRef {
@@ -75,6 +82,23 @@ export interface InputModel {
   grid?: GridSpec
   /** For a nuclear modification: the baseline it multiplies. */
   baseline?: { name: string, version: string }
+  /**
+   * For a nuclear modification: how its coefficients depend on the nucleus, one line per
+   * A-dependent coefficient ("modifications[0].terms[1].A = shadow_v·(1 + −1·A^(−1/3))"); empty
+   * when the modification is the same for every nucleus.
+   */
+  massNumberDependence?: string[]
+  /** For a nuclear modification: the nucleus its document names as target (the family's reference). */
+  documentNucleus?: Nucleus
+}
+
+/** Options of compileInput. */
+export interface CompileOptions {
+  /**
+   * For a nuclear modification: the nucleus to build for (default: the document's target). The
+   * A-dependent coefficients are evaluated for it, and the model's target is it.
+   */
+  nucleus?: Nucleus
 }
 
 function compileCoefficient(v: number | string, index: Map<string, number>, fixed: Map<string, number>): CoefficientRef {
@@ -94,6 +118,37 @@ function compileFactor(t: TermDoc, index: Map<string, number>, fixed: Map<string
     b: compileCoefficient(t.b, index, fixed),
     c: t.c.map(c => compileCoefficient(c, index, fixed))
   }
+}
+
+/** A modification coefficient for one nucleus: plain, or A-dependent evaluated at `nucleus`. */
+function compileModificationCoefficient(v: ModificationCoefficientDoc, index: Map<string, number>, fixed: Map<string, number>, nucleus: Nucleus): CoefficientRef {
+  if (!isMassNumberCoefficient(v)) return compileCoefficient(v, index, fixed)
+  const plain = (c: number | string) => compileCoefficient(c, index, fixed) as number | { param: number }
+  return {
+    ofA: v.ofA.map(t => ({ k: plain(t.k), power: plain(t.power), c: t.c.map(plain), excess: t.excess.map(plain) })),
+    nucleus: { z: nucleus.z, a: nucleus.a }
+  }
+}
+
+function compileModificationFactor(t: ModificationTermDoc, index: Map<string, number>, fixed: Map<string, number>, nucleus: Nucleus): FactorRef {
+  const one = (v: ModificationCoefficientDoc) => compileModificationCoefficient(v, index, fixed, nucleus)
+  return { A: one(t.A), a: one(t.a), b: one(t.b), c: t.c.map(one) }
+}
+
+/** One line per A-dependent coefficient of the modifications, e.g. "modifications[0].terms[1].A = s·(1 + −1·A^(−1/3))". */
+function massNumberLines(modifications: ReadonlyArray<{ terms: ModificationTermDoc[] }>): string[] {
+  const lines: string[] = []
+  modifications.forEach((m, i) => m.terms.forEach((t, r) => {
+    const at = `modifications[${i}].terms[${r}]`
+    const each = (v: ModificationCoefficientDoc, key: string) => {
+      if (isMassNumberCoefficient(v)) lines.push(`${at}.${key} = ${describeMassNumberCoefficient(v)}`)
+    }
+    each(t.A, 'A')
+    each(t.a, 'a')
+    each(t.b, 'b')
+    t.c.forEach((c, k) => each(c, `c[${k}]`))
+  }))
+  return lines
 }
 
 function weightsOf(flavours: Record<string, number>): Float64Array {
@@ -150,16 +205,24 @@ export function compileParametrisedInput(doc: ParametrisedInputDoc): InputModel 
  * of the modification R that applies to it, f^{p/A} = R·f^p at μ₀²; baseline parameters are
  * frozen at their central values; the free parameters and covariance are the modification's;
  * α_s, scheme, μ₀² and sum rules are the baseline's; target, names and members the document's;
- * the grid the document's, else the baseline's.
+ * the grid the document's, else the baseline's. `options.nucleus` builds the modification for
+ * another nucleus than the document's target (A-dependent coefficients evaluated there).
  * @throws InputError when the baseline is missing, has another name, is itself nuclear, or the
  * modifications do not cover each baseline piece exactly once; and (kind 'physics') when a term
  * is not integrable at the central values or the Q² grid does not fit the baseline's thresholds
  * (feasibility.ts).
  * @example compileInput(nuclearDocument, baselineDocument)
+ * @example compileInput(familyDocument, baselineDocument, 'family.json', { nucleus: { z: 26, a: 56 } })
  */
-export function compileInput(document: InputDocument, baseline?: InputDocument, source = 'input'): InputModel {
-  if (document.kind === 'parametrised') return checkedModel(compileParametrisedInput(document.doc), [], source)
+export function compileInput(document: InputDocument, baseline?: InputDocument, source = 'input', options: CompileOptions = {}): InputModel {
+  if (document.kind === 'parametrised') {
+    if (options.nucleus) throw new InputError(source, [{ path: 'nucleus', message: 'only a nuclear modification (sheaf.nuclear-modification) can be built for a chosen nucleus' }])
+    return checkedModel(compileParametrisedInput(document.doc), [], source)
+  }
   const nuc = document.doc
+  const nucleus: Nucleus = options.nucleus ?? { z: nuc.target.z, a: nuc.target.a }
+  const problem = nucleusProblem(nucleus)
+  if (problem) throw new InputError(source, [{ path: 'nucleus', message: problem, kind: 'physics' }])
   const issues: InputIssue[] = []
   if (!baseline) {
     throw new InputError(source, [{ path: 'baseline', message: `this nuclear modification needs its baseline input "${nuc.baseline.name}"${nuc.baseline.file ? ` (file ${nuc.baseline.file})` : ''}` }])
@@ -205,7 +268,7 @@ export function compileInput(document: InputDocument, baseline?: InputDocument, 
   const model = baseModel(base, fixed, new Map())
   const pieces = model.pieces.map((piece, i) => {
     const m = coveredBy.get(pieceIds[i]!)!
-    const rFactors = nuc.modifications[m]!.terms.map(t => compileFactor(t, index, fixed))
+    const rFactors = nuc.modifications[m]!.terms.map(t => compileModificationFactor(t, index, fixed, nucleus))
     return {
       ...piece,
       terms: piece.terms.flatMap(factors => rFactors.map(r => [...factors, r])),
@@ -218,14 +281,16 @@ export function compileInput(document: InputDocument, baseline?: InputDocument, 
     family: nuc.family,
     version: nuc.version,
     description: nuc.description,
-    target: nuc.target,
+    target: { type: 'nucleus', z: nucleus.z, a: nucleus.a },
     parameterNames: nuc.parameters.map(p => p.name),
     central: Float64Array.from(nuc.parameters.map(p => p.value)),
     covariance: nuc.covariance,
     pieces,
     members: nuc.members,
     grid: nuc.grid ?? base.grid,
-    baseline: { name: base.name, version: base.version }
+    baseline: { name: base.name, version: base.version },
+    massNumberDependence: massNumberLines(nuc.modifications),
+    documentNucleus: { z: nuc.target.z, a: nuc.target.a }
   }, nuc.grid ? q2GridIssues(nuc.grid, base.startScaleGeV2, base.scheme) : [], source)
 }
 

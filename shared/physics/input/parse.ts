@@ -10,8 +10,9 @@ import { InputError, type InputIssue } from './errors'
 import { alphasReference, membersSpecIssues, q2GridIssues, startScaleIssues, xGridIssues } from './feasibility'
 import {
   NuclearModificationSchema, ParametrisedInputSchema,
-  type NuclearModificationDoc, type ParametrisedInputDoc, type TermDoc
+  type ModificationTermDoc, type NuclearModificationDoc, type ParametrisedInputDoc, type TermDoc
 } from './schema'
+import { isMassNumberCoefficient, nucleusProblem, type ModificationCoefficientDoc } from './mass-number'
 
 /** A validated input document of either kind. */
 export type InputDocument =
@@ -87,7 +88,8 @@ export function parseInputDocument(value: unknown, source = 'input'): InputDocum
       if (ids.has(m.id)) issues.push({ path: `modifications[${i}].id`, message: `duplicate modification id "${m.id}"` })
       ids.add(m.id)
     })
-    if (r.data.target.z > r.data.target.a) issues.push({ path: 'target', message: `Z = ${r.data.target.z} exceeds A = ${r.data.target.a}`, kind: 'physics' })
+    const targetProblem = nucleusProblem(r.data.target)
+    if (targetProblem) issues.push({ path: 'target', message: targetProblem, kind: 'physics' })
     if (issues.length > 0) throw new InputError(source, issues)
     return { kind: 'nuclear', doc: r.data }
   }
@@ -134,13 +136,23 @@ function checkParameterBlock(
 /** Every named coefficient refers to a declared parameter; optionally every parameter is used. */
 function checkReferences(
   names: string[],
-  groups: { path: string, terms: TermDoc[] }[],
+  groups: { path: string, terms: Array<TermDoc | ModificationTermDoc> }[],
   requireAllUsed: boolean
 ): InputIssue[] {
   const issues: InputIssue[] = []
   const known = new Set(names)
   const used = new Set<string>()
-  const check = (v: number | string, path: string) => {
+  const check = (v: ModificationCoefficientDoc, path: string) => {
+    if (isMassNumberCoefficient(v)) {
+      v.ofA.forEach((t, j) => {
+        const at = `${path}.ofA[${j}]`
+        check(t.k, `${at}.k`)
+        check(t.power, `${at}.power`)
+        t.c.forEach((c, m) => check(c, `${at}.c[${m}]`))
+        t.excess.forEach((e, m) => check(e, `${at}.excess[${m}]`))
+      })
+      return
+    }
     if (typeof v !== 'string') return
     if (known.has(v)) used.add(v)
     else {

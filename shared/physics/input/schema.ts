@@ -50,9 +50,12 @@
  * shared/physics/README.md, "Nuclear targets and isospin"), and `"modifications"`: functions R
  * built from the same terms, each listing the baseline pieces it multiplies (`"appliesTo"`); every
  * baseline piece must be covered exactly once. The baseline's sum rules are imposed again on the
- * bound proton.
+ * bound proton. A modification term's coefficients may depend on the nucleus
+ * (`{ "ofA": [ … ] }`, mass-number.ts), so that one document is a family: built for its own
+ * `target` by default, or for any nucleus asked for.
  */
 import { z } from 'zod'
+import { MassNumberCoefficientSchema } from './mass-number'
 
 const NAME_PATTERN = /^[A-Za-z_][A-Za-z0-9_.]*$/
 
@@ -61,13 +64,25 @@ export const CoefficientSchema = z.union([z.number(), z.string().regex(NAME_PATT
   error: 'expected a number or the name of a fit parameter (letters, digits, _ and ., not starting with a digit)'
 })
 
-/** One term A·x^a·(1−x)^b·(1 + Σ c_k x^{k/2}) of x·f. */
-export const TermSchema = z.object({
-  A: CoefficientSchema.default(1),
-  a: CoefficientSchema,
-  b: CoefficientSchema,
-  c: z.array(CoefficientSchema).max(12).default([])
+/** A term A·x^a·(1−x)^b·(1 + Σ c_k x^{k/2}) whose coefficients follow `coefficient`. */
+const termOf = <C extends typeof CoefficientSchema | typeof ModificationCoefficientSchema>(coefficient: C) => z.object({
+  // Every coefficient schema accepts the number 1: the default amplitude.
+  A: (coefficient as typeof CoefficientSchema).default(1) as unknown as z.ZodDefault<C>,
+  a: coefficient,
+  b: coefficient,
+  c: z.array(coefficient).max(12).default([])
 }).strict()
+
+/** One term A·x^a·(1−x)^b·(1 + Σ c_k x^{k/2}) of x·f. */
+export const TermSchema = termOf(CoefficientSchema)
+
+/** A coefficient of a nuclear-modification term: a number, a parameter name, or A-dependent ({ "ofA": … }, mass-number.ts). */
+export const ModificationCoefficientSchema = z.union([...CoefficientSchema.options, MassNumberCoefficientSchema], {
+  error: 'expected a number, the name of a fit parameter, or an A-dependent coefficient { "ofA": [ { "k", "power", "c", "excess" } ] }'
+})
+
+/** A term of a nuclear modification R: as a term, each coefficient possibly A-dependent. */
+export const ModificationTermSchema = termOf(ModificationCoefficientSchema)
 
 const FlavourKey = z.string().regex(/^(-?[1-6]|21)$/, { error: 'flavour keys are PDG codes as strings: "1".."6", "-1".."-6" or "21"' })
 
@@ -179,7 +194,7 @@ export const NuclearModificationSchema = z.object({
   modifications: z.array(z.object({
     id: z.string().regex(NAME_PATTERN),
     appliesTo: z.array(z.string()).min(1),
-    terms: z.array(TermSchema).min(1)
+    terms: z.array(ModificationTermSchema).min(1)
   }).strict()).min(1),
   members: MembersSpecSchema.optional(),
   grid: GridSpecSchema.optional()
@@ -187,6 +202,8 @@ export const NuclearModificationSchema = z.object({
 
 /** A term as written in a document. */
 export type TermDoc = z.infer<typeof TermSchema>
+/** A nuclear-modification term as written (coefficients possibly A-dependent). */
+export type ModificationTermDoc = z.infer<typeof ModificationTermSchema>
 /** A piece as written in a document. */
 export type PieceDoc = z.infer<typeof PieceSchema>
 /** A validated parametrised-input document. */

@@ -214,12 +214,15 @@ const ccRatioOptions = z.strictObject({
   ckm: ckm.optional()
 }).refine(o => (o.observable ?? 'd2sigma') !== 'd2sigma' || o.beamEnergyGeV !== undefined, { message: 'the ν/ν̄ cross-section ratio needs beamEnergyGeV', path: ['beamEnergyGeV'] })
 
-const nuclearBases = ['drell-yan', 'w-plus', 'w-minus', 'z', 'higgs-ggf', 'dis-nc-f2', 'dis-cc-f2'] as const
+const nuclearBases = ['drell-yan', 'w-plus', 'w-minus', 'z', 'higgs-ggf', 'dis-nc-f2', 'dis-cc-f2', 'dis-cc-xf3', 'dis-cc-d2sigma'] as const
 const nuclearRatioOptions = z.looseObject({
   base: z.enum(nuclearBases),
   // 'proton' (default): per-nucleon σ_A over the free proton's; 'isospin': over the free
-  // nucleons' (Z·p + N·n)/A from the baseline set, so that isospin does not count as a nuclear effect.
-  denominator: z.enum(['proton', 'isospin']).optional(),
+  // nucleons' (Z·p + N·n)/A from the baseline set, so that isospin does not count as a nuclear effect;
+  // 'isoscalar': over ½(p + n) (F₂^A/F₂^{p+n}, σ_νA/σ_νN per nucleon); 'deuteron': over the
+  // deuteron's (Z = 1, A = 2) per-nucleon density of the main set — the free-nucleon sum when the
+  // main set is a proton set, a bound deuteron when it is the family's deuteron set.
+  denominator: z.enum(['proton', 'isospin', 'isoscalar', 'deuteron']).optional(),
   nucleus: z.strictObject({ z: z.number().int().min(1), a: z.number().int().min(1).max(300) }).refine(n => n.z <= n.a, { message: 'a nucleus needs Z ≤ A', path: ['z'] })
 })
 
@@ -278,7 +281,10 @@ const composites: CompositeDefinition[] = [
       const target = { type: 'nucleus', z: nucleus.z, a: nucleus.a }
       // The denominator reads the baseline (free-proton) set: a free proton, or the free nucleons
       // of the same nucleus (Z p + N n)/A by isospin (see shared/physics/README.md, "Nuclear targets and isospin").
-      const free = denominator === 'isospin' ? target : { type: 'proton' }
+      const free = denominator === 'isospin' ? target
+        : denominator === 'isoscalar' ? { type: 'isoscalar' }
+          : denominator === 'deuteron' ? { type: 'nucleus', z: 1, a: 2 }
+            : { type: 'proton' }
       const dis = String(base).startsWith('dis-')
       return dis
         ? [{ kernel: base, options: { ...rest, target }, useSecond: true }, { kernel: base, options: { ...rest, target: free }, useSecond: false }]
@@ -287,6 +293,8 @@ const composites: CompositeDefinition[] = [
     describe: o => {
       const { nucleus, denominator = 'proton' } = opt(o)
       const n = nucleus ? `Z = ${nucleus.z}, A = ${nucleus.a}` : 'the nucleus'
+      if (denominator === 'isoscalar') return `per nucleon, over an isoscalar nucleon ½(p + n) of the main set (${n} over p + n)`
+      if (denominator === 'deuteron') return `per nucleon, over the deuteron of the main set (${n} over D; member by member when both come from one family)`
       return denominator === 'isospin'
         ? `per nucleon, over the free nucleons (Z·p + N·n)/A of ${n} (isospin-corrected)`
         : `per nucleon, over a free proton (isospin not corrected for ${n})`

@@ -7,6 +7,7 @@ import { request } from 'node:http'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { testEnv } from '../../support/env'
 import { createWorkspace, type TestWorkspace } from '../../support/users'
+import { waitForBuild as waitForBuildOf } from './build-helpers'
 import { f2Spec, postForm, toySetBytes, uploadSet, waitForResult } from './helpers'
 
 let ws: TestWorkspace
@@ -19,16 +20,7 @@ beforeAll(async () => {
 
 const base = () => `/api/workspaces/${ws.id}/sets`
 
-async function waitForBuild(buildId: string, ms = 90_000) {
-  const deadline = Date.now() + ms
-  for (;;) {
-    const res = await ws.viewer.client.get(`${base()}/builds/${buildId}`)
-    expect(res.status).toBe(200)
-    if (['done', 'failed', 'cancelled'].includes(res.body.state)) return res.body
-    if (Date.now() > deadline) throw new Error(`build still ${res.body.state}`)
-    await new Promise(r => setTimeout(r, 200))
-  }
-}
+const waitForBuild = (buildId: string) => waitForBuildOf(ws.viewer.client, ws.id, buildId)
 
 describe('uploading sets', () => {
   it('stores a valid set with its metadata and gives the same bytes back', async () => {

@@ -4,10 +4,9 @@
 // is not a double or a correlation matrix that is not positive definite is refused with its
 // file, line and column and nothing is stored.
 import { readFileSync } from 'node:fs'
-import { and, eq } from 'drizzle-orm'
 import { beforeAll, describe, expect, it } from 'vitest'
-import { tables as t, testDB } from '../../support/db'
 import { createWorkspace, type TestWorkspace } from '../../support/users'
+import { buildTraces } from './build-helpers'
 import { f2Spec } from './helpers'
 
 let ws: TestWorkspace
@@ -24,13 +23,7 @@ beforeAll(async () => {
 })
 
 /** Build rows and build audit entries of the workspace: none may appear for a refused request. */
-async function traces() {
-  const db = testDB()
-  const rows = await db.select({ id: t.setBuilds.id }).from(t.setBuilds).where(eq(t.setBuilds.workspaceId, ws.id))
-  const audits = await db.select({ id: t.auditEvents.id }).from(t.auditEvents)
-    .where(and(eq(t.auditEvents.workspaceId, ws.id), eq(t.auditEvents.action, 'set.build-queued')))
-  return { rows: rows.length, audits: audits.length }
-}
+const traces = () => buildTraces(ws.id)
 
 describe('a set build the evolution would refuse', () => {
   it.each([

@@ -1,4 +1,4 @@
-import { readFileSync } from 'node:fs'
+import { readFileSync, writeFileSync } from 'node:fs'
 import { afterAll, describe, expect, it } from 'vitest'
 import { hessianClPercent } from '../../../scripts/cli/verbs/members'
 import { parseSetFile } from '../../../shared/physics/sets'
@@ -20,6 +20,29 @@ describe('sheaf members', () => {
     const set = parseSetFile(readFileSync(out))
     expect(set.header).toMatchObject({ kind: 'hessian-pairs', memberCount: 1 + 2 * parameters, confidenceLevelPercent: 68 })
     expect(JSON.parse(run.stdout).written).toMatchObject({ out, kind: 'hessian-pairs', members: 1 + 2 * parameters })
+  })
+
+  it('builds a nuclear family for the nucleus asked for (symbol or Z:A) and refuses a nucleus that is none', async () => {
+    const out = tmp.file('iron.sheafset')
+    const family = 'samples/fits/ostrand-25.json'
+    const coarse = tmp.file('coarse-family.json')
+    const doc = JSON.parse(readFileSync(family, 'utf8'))
+    doc.grid = { x: { count: 20, min: 1e-3, max: 0.9 }, q2: { count: 6, maxGeV2: 1e3 } }
+    writeFileSync(coarse, JSON.stringify(doc))
+    const run = await sheaf(['members', coarse, '--baseline', 'samples/fits/quillon-22.json', '--nucleus', 'Fe', '--out', out])
+    expect(run.stderr).toBe('')
+    expect(run.code).toBe(0)
+    const set = parseSetFile(readFileSync(out))
+    expect(set.header).toMatchObject({ name: 'Ostrand-25-Fe56', target: { type: 'nucleus', z: 26, a: 56 }, memberCount: 23 })
+    expect(set.header.provenance).toMatch(/nucleus Z = 26, A = 56 from family Ostrand/)
+    const other = tmp.file('argon.sheafset')
+    expect((await sheaf(['members', coarse, '--baseline', 'samples/fits/quillon-22.json', '--nucleus', '18:40', '--out', other])).code).toBe(0)
+    expect(parseSetFile(readFileSync(other)).header.target).toEqual({ type: 'nucleus', z: 18, a: 40 })
+    for (const [bad, message] of [['Qq', /neither Z:A/], ['30:20', /Z = 30 exceeds A = 20/]] as const) {
+      const refused = await sheaf(['members', coarse, '--baseline', 'samples/fits/quillon-22.json', '--nucleus', bad, '--out', tmp.file('bad.sheafset')])
+      expect(refused.code).toBe(2)
+      expect(oneLine(refused)).toMatch(message)
+    }
   })
 
   it('writes the same replicas for the same seed and others for another seed', async () => {

@@ -1,9 +1,12 @@
 // @vitest-environment happy-dom
 import { flushPromises, mount } from '@vue/test-utils'
-import { afterEach, describe, expect, it, vi } from 'vitest'
+import { afterEach, beforeEach, describe, expect, it, vi } from 'vitest'
 import { dateTimeText } from '#shared/utils/dates'
+import { fileSize } from '#shared/utils/file-size'
+import { KIND_LABELS, sciText, targetText } from '~/stores/study-view'
 import SetsBuildList from '~/components/sets/BuildList.vue'
 import SetsSummary from '~/components/sets/Summary.vue'
+import SetsTable from '~/components/sets/Table.vue'
 import SetsUploadForm from '~/components/sets/UploadForm.vue'
 
 /** A stand-in for XMLHttpRequest that answers every POST with `reply`. */
@@ -39,6 +42,8 @@ async function choose(wrapper: ReturnType<typeof mount>, file: File) {
 }
 
 describe('SetsUploadForm', () => {
+  // The app's auto-import of shared/utils/file-size, given by hand here.
+  beforeEach(() => vi.stubGlobal('fileSize', fileSize))
   afterEach(() => vi.unstubAllGlobals())
 
   it('posts the file with the extra fields and lists the located problems of a refused set', async () => {
@@ -68,6 +73,7 @@ describe('SetsUploadForm', () => {
     await choose(wrapper, new File([new Uint8Array(2 ** 20 + 1)], 'big.set'))
     await wrapper.find('form').trigger('submit')
     expect(sent).toHaveLength(0)
+    // Sizes in SI units (shared/utils/file-size.ts): 2^20 + 1 and 2^20 bytes both read 1.0 MB.
     expect(wrapper.find('[role=alert]').text()).toBe('big.set is 1.0 MB; the limit is 1.0 MB.')
     await choose(wrapper, new File(['x'], 'small.set'))
     await wrapper.find('form').trigger('submit')
@@ -126,5 +132,37 @@ describe('SetsBuildList', () => {
   it('gives no place to a running build or one whose place is unknown', () => {
     expect(textOf(build({ state: 'running', queuePlace: 4 }))).not.toContain('in the queue')
     expect(textOf(build({ queuePlace: null }))).not.toContain('in the queue')
+  })
+  it('lists the nuclei of a family build with each set\'s name', () => {
+    const nuclei = [{ z: 6, a: 12, name: 'Fam-C12' }, { z: 82, a: 208, name: 'Fam-Pb208' }]
+    const text = textOf(build({ state: 'done', setId: 's1', setIds: ['s1', 's2'], nuclei }))
+    expect(text).toContain('Nuclear family for 2 nuclei')
+    expect(text).toContain('(Z = 6, A = 12)')
+    expect(text).toContain('(Z = 82, A = 208)')
+    expect(text).not.toContain('Open the set')
+  })
+})
+
+describe('SetsTable', () => {
+  const set = (id: string, name: string, family: string, target: { type: string, z?: number, a?: number }) => ({
+    id, name, family, version: '1', kind: 'hessian-pairs', memberCount: 3, confidenceLevelPercent: 68, xMin: 1e-5, xMax: 0.9,
+    q2MinGeV2: 2, q2MaxGeV2: 1e4, target, addedBy: null, createdAt: '2026-12-04T04:00:00.000Z'
+  })
+
+  it('groups the library by family, a family\'s nuclei lightest first', () => {
+    const sets = [
+      set('1', 'Fam-Pb208', 'Fam', { type: 'nucleus', z: 82, a: 208 }),
+      set('2', 'Proton-1', 'Proton', { type: 'proton' }),
+      set('3', 'Fam-C12', 'Fam', { type: 'nucleus', z: 6, a: 12 })
+    ]
+    const wrapper = mount(SetsTable, { props: { sets, workspaceId: 'w', canRename: false, canDelete: false }, global: {
+      stubs: { NuxtLink: true, SetsActions: true },
+      // The app's auto-imports, given by hand here.
+      mocks: { KIND_LABELS, sciText, targetText }
+    } })
+    const groups = wrapper.findAll('tbody')
+    expect(groups.map(g => g.attributes('data-family'))).toEqual(['Fam', 'Proton'])
+    expect(groups[0]!.findAll('tr[data-set]').map(r => r.attributes('data-set'))).toEqual(['Fam-C12', 'Fam-Pb208'])
+    expect(groups[0]!.text()).toContain('Family Fam · 2 sets · 2 nuclei')
   })
 })

@@ -126,7 +126,8 @@ describe('nuclear ratio with a DIS base: free-proton or isospin (Z·p + N·n)/A 
   it('labels which denominator is used', () => {
     expect(kernelLabel('nuclear-ratio', doc('isospin').options)).toMatch(/\(Z·p \+ N·n\)\/A of Z = 82, A = 208 \(isospin-corrected\)/)
     expect(kernelLabel('nuclear-ratio', doc().options)).toMatch(/over a free proton/)
-    expect(() => parseStudySpec({ ...doc(), options: { ...doc().options, denominator: 'deuteron' } })).toThrow(/^option denominator: /)
+    expect(kernelLabel('nuclear-ratio', doc('deuteron').options)).toMatch(/over the deuteron of the main set/)
+    expect(() => parseStudySpec({ ...doc(), options: { ...doc().options, denominator: 'helium' } })).toThrow(/^option denominator: /)
   })
 })
 

@@ -1,7 +1,8 @@
 import { checkBuildRequest, publicSetBuild, startSetBuild } from '../../../../../domain/sets/builds'
 import { fail } from '../../../../../domain/errors'
 // Build an error set from a parametrised fit (analysts): the input document is checked now
-// (400 with data.issues naming each JSON path), the build runs on the queue.
+// (400 with data.issues naming each JSON path), the build runs on the queue. A nuclear
+// modification with `nuclei` builds one set per nucleus in the same job.
 export default defineEventHandler(async (event) => {
   const { user, workspace } = await requireWorkspace(event, 'analyst')
   const workspaceId = workspace.id
@@ -13,6 +14,10 @@ export default defineEventHandler(async (event) => {
   if (!named.success) {
     const message = named.error.issues[0]!.message
     fail(400, `The set to build needs another name: ${message}`, { fields: { [body.name === undefined ? 'input.name' : 'name']: message } })
+  }
+  for (const [i, n] of (request.nuclei ?? []).entries()) {
+    const ok = setNameSchema.safeParse(n.name)
+    if (!ok.success) fail(400, `nuclei[${i}]: the set for Z = ${n.z}, A = ${n.a} needs another name: ${ok.error.issues[0]!.message}`, { fields: { [`nuclei[${i}].name`]: ok.error.issues[0]!.message } })
   }
   const build = await startSetBuild(useDB(), useQueue, workspaceId, user.id, named.data, request)
   setResponseStatus(event, 202)

@@ -1,0 +1,1 @@
+ALTER TABLE "set_builds" ADD COLUMN "set_ids" uuid[] DEFAULT '{}'::uuid[] NOT NULL;
