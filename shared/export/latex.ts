@@ -13,7 +13,10 @@ const SPECIALS: Record<string, string> = {
 // Symbols that appear in kinematic labels and units; written as math so any LaTeX setup prints them.
 const SYMBOLS: Record<string, string> = {
   '√': '\\sqrt{}', 'σ': '\\sigma', 'μ': '\\mu', 'ν': '\\nu', 'τ': '\\tau', 'α': '\\alpha', 'Δ': '\\Delta',
-  'η': '\\eta', '±': '\\pm', '−': '-', '·': '\\cdot', '×': '\\times', '→': '\\to'
+  'η': '\\eta', '±': '\\pm', '−': '-', '·': '\\cdot', '×': '\\times', '→': '\\to',
+  // LaTeX's default (OT1) text font has no <, > or |: in text mode they print as ¡, ¿ and —
+  // (common practice: write them in math mode).
+  '<': '<', '>': '>', '|': '|', '≤': '\\leq', '≥': '\\geq'
 }
 const SUPERSCRIPTS: Record<string, string> = {
   '⁰': '0', '¹': '1', '²': '2', '³': '3', '⁴': '4', '⁵': '5', '⁶': '6', '⁷': '7', '⁸': '8', '⁹': '9', '⁻': '-', '⁺': '+'

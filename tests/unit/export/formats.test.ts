@@ -60,6 +60,9 @@ describe('LaTeX', () => {
   it('escapes text and writes symbols as math', () => {
     expect(latexText('Q² [GeV²] 5% & a_b #1 $')).toBe('Q$^{2}$ [GeV$^{2}$] 5\\% \\& a\\_b \\#1 \\$')
     expect(latexText('GeV⁻²')).toBe('GeV$^{-2}$')
+    // <, > and | have no glyph in the default text font: they go to math mode
+    expect(latexText('|y| < 2.5 (x below 0.99)')).toBe('$|$y$|$ $<$ 2.5 (x below 0.99)')
+    expect(latexText('Q² ≥ 4')).toBe('Q$^{2}$ $\\geq$ 4')
     expect(latexText('√s = 13 TeV')).toBe('$\\sqrt{s}$ = 13 TeV')
     expect(latexText('dσ/dM, σ² — x·y')).toBe('d$\\sigma$/dM, $\\sigma^{2}$ --- x$\\cdot$y')
     expect(latexNumber(1e4)).toBe('10000')
