@@ -8,6 +8,8 @@
  * - Q² in GeV², masses in GeV, cross-sections in pb unless a name says otherwise.
  */
 
+import type { SetDensity } from './fragmentation/species'
+
 /** PDG code of a parton. */
 export type Pdg = number
 
@@ -78,6 +80,12 @@ export interface SetHeader {
    * replicas, checked when a set file is read; 'fit' — a separate central fit, not the mean.
    */
   replicaCentral?: 'mean' | 'fit'
+  /**
+   * What the grid holds (fragmentation/species.ts): absent means parton densities (every
+   * version-1 file); { type: 'fragmentation', hadron } means z·D_i^h(z, Q²) with the grid's x axis
+   * read as z.
+   */
+  density?: SetDensity
 }
 
 /** An error set: header plus members, central first. All members share x, q2 and flavours. */
