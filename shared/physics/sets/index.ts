@@ -5,9 +5,9 @@
 
 // File format
 export type { SetEncoding } from './format'
-export { SET_FILE_MAGIC, SET_FILE_PREAMBLE_BYTES, SET_FORMAT_VERSION, SET_FILE_EXTENSION, SET_BODY_ORDER, bytesPerValue } from './format'
+export { SET_FILE_MAGIC, SET_FILE_PREAMBLE_BYTES, SET_FORMAT_VERSION, SET_FORMAT_VERSIONS_READ, SET_FILE_EXTENSION, SET_BODY_ORDER, bytesPerValue } from './format'
 export type { SetFileHeader } from './header'
-export { setHeaderSchema, setFileHeaderSchema } from './header'
+export { setHeaderSchema, setFileHeaderSchema, setFileHeaderV1Schema, NO_TARGET, fractionAxisOf, densityTargetProblem, fileSetHeader, memorySetHeader } from './header'
 
 // Errors
 export type { SetFormatLocation } from './errors'
@@ -25,3 +25,4 @@ export { checkXNodes, checkQ2Nodes, checkFlavours, checkMemberCount, checkValues
 // TOY sets (analytic, not fits)
 export type { ToyQ2Options, ToySetOptions } from './toy'
 export { toyXNodes, toyQ2Nodes, toyFlavours, toyXf, toyErrorSet } from './toy'
+export { toyZD } from './toy-fragmentation'

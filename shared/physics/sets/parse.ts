@@ -1,10 +1,9 @@
 import type { ErrorSet, SetHeader } from '../types'
 import { SetFormatError } from './errors'
 import type { SetEncoding } from './format'
-import { SET_FILE_MAGIC, SET_FILE_PREAMBLE_BYTES, SET_FORMAT_VERSION, bytesPerValue } from './format'
-import type { SetFileHeader } from './header'
+import { SET_FILE_MAGIC, SET_FILE_PREAMBLE_BYTES, SET_FORMAT_VERSIONS_READ, bytesPerValue } from './format'
 import { formatPath } from '../json-path'
-import { cleanHeader, setFileHeaderSchema } from './header'
+import { densityTargetProblem, fractionAxisOf, memorySetHeader, setFileHeaderSchema, setFileHeaderV1Schema } from './header'
 import { checkFlavours, checkMemberCount, checkQ2Nodes, checkReplicaMean, checkValuesFinite, checkXNodes } from './validate'
 
 /** A set file's header, decoded and checked, with where its body lies. */
@@ -53,25 +52,50 @@ function decodeHeader(bytes: Uint8Array): { json: unknown, bodyOffset: number } 
   }
 }
 
-function checkHeader(json: unknown): SetFileHeader {
+/** A checked file header of either version, in memory form. */
+interface CheckedHeader {
+  header: SetHeader
+  /** The momentum-fraction nodes (grid.x or grid.z) and where they are in the header. */
+  fraction: number[]
+  fractionPath: string
+  q2GeV2: number[]
+  flavours: number[]
+  body: { encoding: SetEncoding, valueCount: number }
+}
+
+function checkHeader(json: unknown): CheckedHeader {
   const version = (json as { formatVersion?: unknown } | null)?.formatVersion
-  if (typeof version === 'number' && version !== SET_FORMAT_VERSION) {
-    throw new SetFormatError(`formatVersion ${version} is not supported; this reader handles formatVersion ${SET_FORMAT_VERSION}`, { path: 'formatVersion', byteOffset: SET_FILE_PREAMBLE_BYTES })
+  if (typeof version === 'number' && !SET_FORMAT_VERSIONS_READ.includes(version)) {
+    throw new SetFormatError(`formatVersion ${version} is not supported; this reader handles formatVersion ${SET_FORMAT_VERSIONS_READ.join(' and ')}`, { path: 'formatVersion', byteOffset: SET_FILE_PREAMBLE_BYTES })
   }
-  const parsed = setFileHeaderSchema.safeParse(json)
+  const at = (path: string, message: string) => new SetFormatError(`header ${path}: ${message}`, { path, byteOffset: SET_FILE_PREAMBLE_BYTES })
+  const parsed = version === 1 ? setFileHeaderV1Schema.safeParse(json) : setFileHeaderSchema.safeParse(json)
   if (!parsed.success) {
     const issue = parsed.error.issues[0]!
     const path = formatPath(issue.path)
     const what = issue.code === 'unrecognized_keys' ? `unknown key${issue.keys.length > 1 ? 's' : ''} ${issue.keys.join(', ')}` : issue.message
     throw new SetFormatError(`header ${path || '(top level)'}: ${what}`, { path: path || undefined, byteOffset: SET_FILE_PREAMBLE_BYTES })
   }
-  return parsed.data
+  const doc = parsed.data
+  const { q2GeV2, flavours } = doc.grid
+  if (doc.formatVersion === 1) {
+    return { header: memorySetHeader(doc.set), fraction: doc.grid.x, fractionPath: 'grid.x', q2GeV2, flavours, body: doc.body }
+  }
+  const problem = densityTargetProblem(doc.set, 'set.')
+  if (problem) throw at(problem.path, problem.message)
+  const axis = fractionAxisOf(doc.set.density)
+  const other = axis === 'x' ? 'z' : 'x'
+  const what = axis === 'z' ? `a fragmentation set (into ${(doc.set.density as { hadron: string }).hadron}) names its momentum-fraction axis z` : 'a set of parton densities names its momentum-fraction axis x'
+  if (doc.grid[other] !== undefined) throw at(`grid.${other}`, `${what}: write the nodes as grid.${axis}, not grid.${other}`)
+  const fraction = doc.grid[axis]
+  if (fraction === undefined) throw at(`grid.${axis}`, `${what}: grid.${axis} (the nodes) is missing`)
+  return { header: memorySetHeader(doc.set), fraction, fractionPath: `grid.${axis}`, q2GeV2, flavours, body: doc.body }
 }
 
 /**
  * Reads and checks the header of a Sheaf set file (format.ts) without decoding the body:
- * magic line, header length, UTF-8 JSON, formatVersion, every header key (zod), the x and Q²
- * nodes, the flavour list, the member count against the kind, and the body length.
+ * magic line, header length, UTF-8 JSON, formatVersion (1 or 2), every header key (zod), the
+ * density and target (version 2), the x (or z) and Q² nodes, the flavour list, the member count against the kind, and the body length.
  * Input: the file's bytes (a Node Buffer is a Uint8Array); nothing is read from disk.
  * Errors: SetFormatError with the byte offset and header path.
  * @example readSetHeader(bytes).header.kind // 'hessian-pairs'
@@ -79,14 +103,14 @@ function checkHeader(json: unknown): SetFileHeader {
 export function readSetHeader(bytes: Uint8Array): SetFileSummary {
   const { json, bodyOffset } = decodeHeader(bytes)
   const doc = checkHeader(json)
-  const header = cleanHeader(doc.set as SetHeader)
-  checkXNodes(doc.grid.x)
-  checkQ2Nodes(doc.grid.q2GeV2, header.scheme)
-  checkFlavours(doc.grid.flavours)
+  const header = doc.header
+  checkXNodes(doc.fraction, doc.fractionPath, fractionAxisOf(header.density))
+  checkQ2Nodes(doc.q2GeV2, header.scheme)
+  checkFlavours(doc.flavours)
   checkMemberCount(header)
-  const nx = doc.grid.x.length
-  const nq = doc.grid.q2GeV2.length
-  const nf = doc.grid.flavours.length
+  const nx = doc.fraction.length
+  const nq = doc.q2GeV2.length
+  const nf = doc.flavours.length
   const expected = header.memberCount * nq * nx * nf
   if (doc.body.valueCount !== expected) {
     throw new SetFormatError(`body.valueCount is ${doc.body.valueCount}; memberCount · nQ² · nx · nf = ${header.memberCount} · ${nq} · ${nx} · ${nf} = ${expected}`, { path: 'body.valueCount', byteOffset: SET_FILE_PREAMBLE_BYTES })
@@ -101,13 +125,13 @@ export function readSetHeader(bytes: Uint8Array): SetFileSummary {
       : `it has ${bodyBytes - expected * size} bytes too many`
     throw new SetFormatError(`the body must be ${expected * size} bytes (${expected} values × ${size} bytes) but is ${bodyBytes}: ${detail}`, { byteOffset: bodyOffset + Math.min(bodyBytes, expected * size), member: bodyBytes < expected * size ? whole : undefined })
   }
-  const x = Float64Array.from(doc.grid.x)
-  const q2 = Float64Array.from(doc.grid.q2GeV2)
+  const x = Float64Array.from(doc.fraction)
+  const q2 = Float64Array.from(doc.q2GeV2)
   return {
     header,
     x,
     q2,
-    flavours: [...doc.grid.flavours],
+    flavours: [...doc.flavours],
     encoding: doc.body.encoding,
     bodyOffset,
     range: { xMin: x[0]!, xMax: x[nx - 1]!, q2MinGeV2: q2[0]!, q2MaxGeV2: q2[nq - 1]! }

@@ -1,6 +1,9 @@
 import jStat from 'jstat'
 import { normalStream } from '../random'
+import type { SetDensity } from '../fragmentation/species'
 import type { ErrorSet, FlavourScheme, Pdg, SetHeader, SetKind } from '../types'
+import { NO_TARGET } from './header'
+import { toyZD } from './toy-fragmentation'
 
 /**
  * TOY error sets from analytic functions — for demos, samples, tests of the plumbing and the
@@ -124,6 +127,11 @@ export interface ToySetOptions {
   name?: string
   /** Size of each eigenvector's relative variation, default 0.03. */
   amplitude?: number
+  /**
+   * What the set holds: parton densities ({@link toyXf}, the default) or fragmentation functions
+   * into one hadron ({@link toyZD}, with x read as z).
+   */
+  density?: SetDensity
 }
 
 /**
@@ -141,13 +149,17 @@ export function toyErrorSet(options: ToySetOptions): ErrorSet {
   const nq = q2.length
   const nf = flavours.length
   const amplitude = options.amplitude ?? 0.03
+  const density = options.density
+  const value = density?.type === 'fragmentation'
+    ? (pdg: Pdg, z: number, q: number) => toyZD(density.hadron, pdg, z, q, scheme)
+    : (pdg: Pdg, xv: number, q: number) => toyXf(pdg, xv, q, scheme)
   const central = new Float64Array(nx * nq * nf)
   // Threshold duplicates: the lower copy of a repeated node takes the value from below.
   for (let iq = 0; iq < nq; iq++) {
     const below = iq + 1 < nq && q2[iq + 1] === q2[iq]
     const q = below ? q2[iq]! * (1 - 1e-12) : q2[iq]!
     for (let ix = 0; ix < nx; ix++) {
-      for (let s = 0; s < nf; s++) central[(iq * nx + ix) * nf + s] = toyXf(flavours[s]!, x[ix]!, q, scheme)
+      for (let s = 0; s < nf; s++) central[(iq * nx + ix) * nf + s] = value(flavours[s]!, x[ix]!, q)
     }
   }
   const pattern = (k: number, out: Float64Array) => {
@@ -204,10 +216,13 @@ export function toyErrorSet(options: ToySetOptions): ErrorSet {
     alphasMzCentral: 0.118,
     order: 'LO',
     scheme,
-    target: { type: 'proton' },
-    provenance: 'TOY: analytic functions made up for demos and tests (shared/physics/sets/toy.ts); not a fit to data, not an evolution.',
+    target: density?.type === 'fragmentation' ? { ...NO_TARGET } : { type: 'proton' },
+    provenance: density?.type === 'fragmentation'
+      ? 'TOY: analytic fragmentation functions made up for demos and tests (shared/physics/sets/toy-fragmentation.ts); not a fit to data, not an evolution.'
+      : 'TOY: analytic functions made up for demos and tests (shared/physics/sets/toy.ts); not a fit to data, not an evolution.',
     memberCount: members.length,
-    ...(kind === 'replicas' ? { replicaCentral: 'mean' as const } : {})
+    ...(kind === 'replicas' ? { replicaCentral: 'mean' as const } : {}),
+    ...(density?.type === 'fragmentation' ? { density } : {})
   }
   return { header, x, q2, flavours, members }
 }

@@ -10,18 +10,19 @@ import { SetFormatError } from './errors'
  */
 
 /**
- * Checks the x nodes: finite, in (0, 1), strictly increasing, at least 2.
+ * Checks the momentum-fraction nodes (x of parton densities, z of fragmentation functions; `axis`
+ * names them in messages): finite, in (0, 1), strictly increasing, at least 2.
  * @example checkXNodes(Float64Array.of(1e-3, 0.1, 0.5)) // passes
  */
-export function checkXNodes(x: ArrayLike<number>, pathPrefix = 'grid.x'): void {
-  if (x.length < 2) throw new SetFormatError(`the grid needs at least 2 x nodes; it has ${x.length}`, { path: pathPrefix })
+export function checkXNodes(x: ArrayLike<number>, pathPrefix = 'grid.x', axis: 'x' | 'z' = 'x'): void {
+  if (x.length < 2) throw new SetFormatError(`the grid needs at least 2 ${axis} nodes; it has ${x.length}`, { path: pathPrefix })
   for (let i = 0; i < x.length; i++) {
     const v = x[i]!
     const path = `${pathPrefix}[${i}]`
-    if (!Number.isFinite(v)) throw new SetFormatError(`x node ${i} is ${v}; x nodes must be finite numbers`, { xIndex: i, path })
-    if (!(v > 0 && v < 1)) throw new SetFormatError(`x node ${i} is ${v}; x nodes must lie in (0, 1)`, { xIndex: i, path })
+    if (!Number.isFinite(v)) throw new SetFormatError(`${axis} node ${i} is ${v}; ${axis} nodes must be finite numbers`, { xIndex: i, path })
+    if (!(v > 0 && v < 1)) throw new SetFormatError(`${axis} node ${i} is ${v}; ${axis} nodes must lie in (0, 1)`, { xIndex: i, path })
     if (i > 0 && !(v > x[i - 1]!)) {
-      throw new SetFormatError(`x node ${i} (${v}) does not exceed x node ${i - 1} (${x[i - 1]}); x nodes must increase strictly`, { xIndex: i, path })
+      throw new SetFormatError(`${axis} node ${i} (${v}) does not exceed ${axis} node ${i - 1} (${x[i - 1]}); ${axis} nodes must increase strictly`, { xIndex: i, path })
     }
   }
 }

@@ -4,7 +4,7 @@ import type { SetEncoding } from './format'
 import { SET_BODY_ORDER, SET_FILE_MAGIC, SET_FILE_PREAMBLE_BYTES, SET_FORMAT_VERSION, bytesPerValue } from './format'
 import type { SetFileHeader } from './header'
 import { formatPath } from '../json-path'
-import { cleanHeader, setHeaderSchema } from './header'
+import { NO_TARGET, cleanHeader, fileSetHeader, fractionAxisOf, setHeaderSchema } from './header'
 import { checkFlavours, checkMemberCount, checkQ2Nodes, checkReplicaMean, checkValuesFinite, checkXNodes } from './validate'
 
 /** Options of {@link writeSetFile}. */
@@ -27,7 +27,11 @@ export function validateErrorSet(set: ErrorSet, relTolerance = 1e-6): void {
     const path = `set.${formatPath(issue.path)}`
     throw new SetFormatError(`header ${path}: ${issue.code === 'unrecognized_keys' ? `unknown keys ${issue.keys.join(', ')}` : issue.message}`, { path })
   }
-  checkXNodes(set.x)
+  const axis = fractionAxisOf(set.header.density)
+  if (axis === 'z' && (set.header.target.type !== NO_TARGET.type || Object.keys(set.header.target).length !== 1)) {
+    throw new SetFormatError('header set.target: a fragmentation set has no target; in memory it carries the neutral { type: "proton" } (NO_TARGET), never a nucleus', { path: 'set.target' })
+  }
+  checkXNodes(set.x, `grid.${axis}`, axis)
   checkQ2Nodes(set.q2, set.header.scheme)
   checkFlavours(set.flavours)
   checkMemberCount(set.header)
@@ -43,7 +47,9 @@ export function validateErrorSet(set: ErrorSet, relTolerance = 1e-6): void {
 }
 
 /**
- * Serialises an error set in Sheaf's set-file format (format.ts), after {@link validateErrorSet}.
+ * Serialises an error set in Sheaf's set-file format, version 2 (format.ts), after
+ * {@link validateErrorSet}: `set.density` always written, a fragmentation set's nodes as grid.z
+ * and without a target.
  * With the default Float64 encoding, parseSetFile(writeSetFile(set)) reproduces every number
  * bit for bit (JSON numbers round-trip IEEE doubles exactly; the body is copied as bytes).
  * Returns a new Uint8Array; nothing is written to disk.
@@ -54,10 +60,13 @@ export function writeSetFile(set: ErrorSet, options: WriteSetOptions = {}): Uint
   validateErrorSet(set, encoding === 'float64-le' ? 1e-6 : 1e-4)
   const perMember = set.x.length * set.q2.length * set.flavours.length
   const count = perMember * set.members.length
+  const fraction = Array.from(set.x)
   const doc: SetFileHeader = {
     formatVersion: SET_FORMAT_VERSION,
-    set: cleanHeader(set.header) as SetFileHeader['set'],
-    grid: { x: Array.from(set.x), q2GeV2: Array.from(set.q2), flavours: [...set.flavours] },
+    set: fileSetHeader(set.header),
+    grid: fractionAxisOf(set.header.density) === 'z'
+      ? { z: fraction, q2GeV2: Array.from(set.q2), flavours: [...set.flavours] }
+      : { x: fraction, q2GeV2: Array.from(set.q2), flavours: [...set.flavours] },
     body: { encoding, order: SET_BODY_ORDER, valueCount: count }
   }
   const size = bytesPerValue(encoding)

@@ -112,7 +112,7 @@ describe('set files: the parser refuses bad files and says where', () => {
     ['repeated flavour', (d: any) => { d.grid.flavours[1] = d.grid.flavours[0] }, { path: 'grid.flavours[1]' }, 'appears twice'],
     ['flavour not a PDG parton code', (d: any) => { d.grid.flavours[6] = 11 }, { path: 'grid.flavours[6]' }, 'PDG parton code'],
     ['unknown kind', (d: any) => { d.set.kind = 'bootstrap' }, { path: 'set.kind' }, 'header set.kind'],
-    ['newer format version', (d: any) => { d.formatVersion = 2 }, { path: 'formatVersion' }, 'formatVersion 2 is not supported'],
+    ['newer format version', (d: any) => { d.formatVersion = 3 }, { path: 'formatVersion' }, 'formatVersion 3 is not supported'],
     ['unknown header key', (d: any) => { d.grid.xNodes = d.grid.x }, { path: 'grid' }, 'unknown key xNodes'],
     ['wrong valueCount', (d: any) => { d.body.valueCount = 17 }, { path: 'body.valueCount' }, 'memberCount · nQ² · nx · nf'],
     ['α_s members not last', (d: any) => { d.set.alphasMembers = [1, 1] }, { path: 'set.alphasMembers' }, 'last two'],
