@@ -11,13 +11,16 @@ export const SET_TABLE_FORMATS = ['csv', 'tsv', 'parquet'] as const
 /**
  * The set header of an imported table: the set file's header without the grid-derived
  * `memberCount` (counted from the table) and `order` (always LO); `family` and `version`
- * default to the name and "1".
+ * default to the name and "1". `density` as in a version-2 set file (absent: parton densities);
+ * `target` is required for parton densities and absent for a fragmentation set (the import
+ * checks it with densityTargetProblem), whose table names its fraction column z.
  */
 export const setTableHeaderSchema = setHeaderSchema
   .omit({ memberCount: true, order: true, family: true, version: true })
   .extend({
     family: setHeaderSchema.shape.family.optional(),
-    version: setHeaderSchema.shape.version.optional()
+    version: setHeaderSchema.shape.version.optional(),
+    target: setHeaderSchema.shape.target.optional()
   })
 export type SetTableHeader = z.infer<typeof setTableHeaderSchema>
 

@@ -113,6 +113,8 @@ export const densitiesQuerySchema = z.object({
       return list.map(v => (v === 'uv' || v === 'dv' ? v : Number(v)))
     }),
   points: z.coerce.number().int().min(10).max(400).default(100),
+  /** How the points are spread over the grid's momentum fractions: even in ln x (log) or in x (linear). */
+  spacing: z.enum(['log', 'linear'], { error: 'spacing is log or linear' }).default('log'),
   prescription: prescriptionChoice.optional(),
   cl: bandsQuerySchema.shape.cl,
   ratioTo: z.uuid({ error: 'ratioTo is the id of another set' }).optional()

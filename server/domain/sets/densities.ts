@@ -24,6 +24,11 @@ export function logSpacedX(lo: number, hi: number, count: number): Float64Array 
   return Float64Array.from({ length: count }, (_, i) => Math.exp(a + ((b - a) * i) / (count - 1)))
 }
 
+/** `count` x values evenly spaced in x over [lo, hi]. */
+export function linearSpacedX(lo: number, hi: number, count: number): Float64Array {
+  return Float64Array.from({ length: count }, (_, i) => (i === count - 1 ? hi : lo + ((hi - lo) * i) / (count - 1)))
+}
+
 /** Values of choice `f` at the stencils for every member: members × points, member-major. */
 function memberMatrix(set: ErrorSet, stencils: Stencil[], f: FlavourChoice): Float64Array {
   const axes = preparedAxesOf(set)

@@ -1,7 +1,9 @@
 // The neutral set tables (our layout, documented in README.md "Set tables"):
 //   long: member, x, q2, pdg, xf           — one row per member, x node, Q² node and flavour
 //   wide: member, x, q2, <pdg>, <pdg>, …   — one row per member, x and Q² node, one column per PDG code
-// member is the member index (0 = central), x and q2 (GeV²) the grid node, xf = x·f(x, Q²). At a
+// member is the member index (0 = central), x and q2 (GeV²) the grid node, xf = x·f(x, Q²). A
+// fragmentation set's table (its header says density fragmentation) names the fraction column z
+// and the long form's value column zD = z·D(z, Q²): member, z, q2, pdg, zD. At a
 // heavy-quark threshold of a variable-flavour scheme Q² = m_h² is a node twice: the first row of
 // a (member, x, flavour) at that Q² is the value just below the threshold, the second just above.
 // Numbers are written in the shortest form that reads back to the same double, so a table
@@ -41,19 +43,32 @@ export const tableError = (where: TableLocation, message: string) => {
   return new TableError(at ? `${at}: ${message}` : message, where)
 }
 
-export type TableLayout = { kind: 'long' } | { kind: 'wide', flavours: number[] }
+/** The momentum-fraction axis of a table: x for parton densities, z for fragmentation functions. */
+export type FractionAxis = 'x' | 'z'
 
-/** The layout named by a header row; TableError naming the first column that does not fit. */
-export function layoutOf(names: readonly string[], at: (column: number) => TableLocation): TableLayout {
+export type TableLayout = ({ kind: 'long' } | { kind: 'wide', flavours: number[] }) & { axis: FractionAxis }
+
+/** The column names of a table's key columns and of its long form's value column, for an axis. */
+export function tableNames(axis: FractionAxis): { keys: readonly string[], value: string } {
+  return axis === 'z' ? { keys: ['member', 'z', 'q2'], value: 'zD' } : { keys: WIDE_KEY_COLUMNS, value: 'xf' }
+}
+
+/**
+ * The layout named by a header row, for a set whose fraction axis is `axis` (its header's
+ * density); TableError naming the first column that does not fit.
+ */
+export function layoutOf(names: readonly string[], at: (column: number) => TableLocation, axis: FractionAxis = 'x'): TableLayout {
   const clean = names.map(n => n.trim())
   const lower = clean.map(n => n.toLowerCase())
-  const expect = 'the columns are member, x, q2, then pdg and xf (long form) or one column per PDG code (wide form)'
+  const { keys, value } = tableNames(axis)
+  const holds = axis === 'z' ? 'the header says fragmentation functions, so ' : ''
+  const expect = `${holds}the columns are member, ${axis}, q2, then pdg and ${value} (long form) or one column per PDG code (wide form)`
   for (let i = 0; i < 3; i++) {
-    if (lower[i] !== WIDE_KEY_COLUMNS[i]) {
-      throw tableError(at(i + 1), `expected the column "${WIDE_KEY_COLUMNS[i]}" but found "${clean[i] ?? ''}"; ${expect}`)
+    if (lower[i] !== keys[i]) {
+      throw tableError(at(i + 1), `expected the column "${keys[i]}" but found "${clean[i] ?? ''}"; ${expect}`)
     }
   }
-  if (lower.length === 5 && lower[3] === 'pdg' && lower[4] === 'xf') return { kind: 'long' }
+  if (lower.length === 5 && lower[3] === 'pdg' && lower[4] === value.toLowerCase()) return { kind: 'long', axis }
   if (lower.length < 4) throw tableError(at(lower.length + 1), `a flavour column is missing; ${expect}`)
   const flavours: number[] = []
   for (let i = 3; i < clean.length; i++) {
@@ -64,7 +79,7 @@ export function layoutOf(names: readonly string[], at: (column: number) => Table
     if (flavours.includes(code)) throw tableError(at(i + 1), `the flavour column ${code} appears twice`)
     flavours.push(code)
   }
-  return { kind: 'wide', flavours }
+  return { kind: 'wide', flavours, axis }
 }
 
 const DECIMAL = /^[+-]?(?:\d+\.?\d*|\.\d+)(?:[eE][+-]?\d+)?$/

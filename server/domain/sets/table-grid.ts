@@ -3,12 +3,15 @@
 // axes; the fill (pass 2) puts each value in its place and finds duplicates; then every member,
 // node and flavour must be present exactly once.
 import { isPartonCode, PARTON_CODES_TEXT } from '../../../shared/physics/partons'
-import { MAX_TABLE_MEMBERS, tableError, TableError, type TableLayout, type TableLocation } from './table-format'
+import { MAX_TABLE_MEMBERS, tableError, TableError, tableNames, type TableLayout, type TableLocation } from './table-format'
 
 /** One record of a table as numbers (NaN for a cell that is not a number), with its location. */
 export type RecordSink = (cells: ArrayLike<number>, at: (column: number) => TableLocation) => void
 
-const names = (layout: TableLayout) => layout.kind === 'long' ? ['member', 'x', 'q2', 'pdg', 'xf'] : ['member', 'x', 'q2', ...layout.flavours.map(String)]
+const names = (layout: TableLayout) => {
+  const { keys, value } = tableNames(layout.axis)
+  return layout.kind === 'long' ? [...keys, 'pdg', value] : [...keys, ...layout.flavours.map(String)]
+}
 
 /** Checks one record's cells; throws a located TableError for the first bad one. */
 function checkRecord(layout: TableLayout, columns: readonly string[], cells: ArrayLike<number>, at: (column: number) => TableLocation) {
@@ -17,14 +20,15 @@ function checkRecord(layout: TableLayout, columns: readonly string[], cells: Arr
   const m = cells[0]!
   if (!Number.isInteger(m) || m < 0 || m >= MAX_TABLE_MEMBERS) throw bad(0, `the member must be a whole number from 0 (central) to ${MAX_TABLE_MEMBERS - 1}`)
   const x = cells[1]!
-  if (!(x > 0 && x < 1)) throw bad(1, 'x must be a number in (0, 1)')
+  const value = layout.axis === 'z' ? 'z·D' : 'x·f'
+  if (!(x > 0 && x < 1)) throw bad(1, `${layout.axis} must be a number in (0, 1)`)
   const q2 = cells[2]!
   if (!(q2 > 0 && Number.isFinite(q2))) throw bad(2, 'Q² must be a positive number of GeV²')
   if (layout.kind === 'long') {
     if (!isPartonCode(cells[3]!)) throw bad(3, `the PDG code must be a parton code: ${PARTON_CODES_TEXT}`)
-    if (!Number.isFinite(cells[4]!)) throw bad(4, 'x·f must be a finite number')
+    if (!Number.isFinite(cells[4]!)) throw bad(4, `${value} must be a finite number`)
   } else {
-    for (let i = 3; i < cells.length; i++) if (!Number.isFinite(cells[i]!)) throw bad(i, 'x·f must be a finite number')
+    for (let i = 3; i < cells.length; i++) if (!Number.isFinite(cells[i]!)) throw bad(i, `${value} must be a finite number`)
   }
 }
 
@@ -106,7 +110,7 @@ export class GridFill {
     this.perMember = nx * q2.length * nf
     const cells = this.perMember * this.memberCount
     if (cells * 8 > maxValueBytes) {
-      throw new TableError(`the grid (${this.memberCount} members × ${q2.length} Q² × ${nx} x × ${nf} flavours = ${cells} values) is larger than the set limit of ${Math.floor(maxValueBytes / 8)} values`, {})
+      throw new TableError(`the grid (${this.memberCount} members × ${q2.length} Q² × ${nx} ${layout.axis} × ${nf} flavours = ${cells} values) is larger than the set limit of ${Math.floor(maxValueBytes / 8)} values`, {})
     }
     this.xIndex = new Map([...this.x].map((v, i) => [v, i]))
     this.q2Index = new Map()
@@ -130,7 +134,7 @@ export class GridFill {
       const twice = iq + 1 < this.q2.length && this.q2[iq + 1] === q2
       if (twice) k += nx * nf
       if (!twice || this.filled[k]) {
-        throw tableError(at, `member ${m}, x = ${x}, Q² = ${q2} GeV², PDG ${f} appears ${twice ? 'a third time (a threshold node may appear twice)' : 'a second time'}`)
+        throw tableError(at, `member ${m}, ${this.survey.layout.axis} = ${x}, Q² = ${q2} GeV², PDG ${f} appears ${twice ? 'a third time (a threshold node may appear twice)' : 'a second time'}`)
       }
     }
     this.filled[k] = 1
@@ -161,10 +165,11 @@ export class GridFill {
       const ix = Math.floor((rest % (nx * nf)) / nf)
       const f = this.flavours[rest % nf]
       const side = this.q2[iq - 1] === this.q2[iq] ? ' (second row at this threshold Q², the value above it)' : ''
+      const axis = this.survey.layout.axis
       throw new TableError(
-        `the grid is incomplete: member ${m}, x = ${this.x[ix]}, Q² = ${this.q2[iq]} GeV²${side}, PDG ${f} has no row`
+        `the grid is incomplete: member ${m}, ${axis} = ${this.x[ix]}, Q² = ${this.q2[iq]} GeV²${side}, PDG ${f} has no row`
         + (missing > 1 ? ` (and ${missing - 1} more values are missing)` : '')
-        + `; every member 0…${this.memberCount - 1} needs every x, Q² and flavour once`
+        + `; every member 0…${this.memberCount - 1} needs every ${axis}, Q² and flavour once`
       )
     }
     const members: Float64Array[] = []

@@ -5,7 +5,7 @@
 import { stat } from 'node:fs/promises'
 import type { DB } from '../../database/client'
 import { SetFormatError } from '../../../shared/physics/sets/errors'
-import { cleanHeader } from '../../../shared/physics/sets/header'
+import { NO_TARGET, cleanHeader, densityTargetProblem, fractionAxisOf } from '../../../shared/physics/sets/header'
 import { writeSetFile } from '../../../shared/physics/sets/write'
 import type { ErrorSet, SetHeader } from '../../../shared/physics/types'
 import { setTableHeaderSchema, type SetTableHeader } from '../../../shared/utils/set-table-schemas'
@@ -33,6 +33,8 @@ export function parseTableHeader(text: string | undefined, where: string): SetTa
     const [first] = Object.entries(fields)
     fail(400, `${where}: ${first![0]}: ${first![1]}`, { fields })
   }
+  const problem = densityTargetProblem(parsed.data, 'header.')
+  if (problem) fail(400, `${where}: ${problem.message}`, { fields: { [problem.path]: problem.message } })
   return parsed.data
 }
 
@@ -46,7 +48,8 @@ export interface TableImportStats { format: string, gzip: boolean, layout: strin
 export async function readSetTable(path: string, fileName: string, tableHeader: SetTableHeader, maxSetBytes: number): Promise<{ bytes: Uint8Array, set: ErrorSet, stats: TableImportStats }> {
   try {
     const { format, gzip } = await detectFormat(path, fileName)
-    const source = format === 'parquet' ? await parquetSource(path) : await delimitedSource(path, format, gzip)
+    const axis = fractionAxisOf(tableHeader.density)
+    const source = format === 'parquet' ? await parquetSource(path, axis) : await delimitedSource(path, format, gzip, axis)
     const survey = new GridSurvey(source.layout)
     await source.read(survey.add)
     survey.end()
@@ -59,9 +62,12 @@ export async function readSetTable(path: string, fileName: string, tableHeader: 
     }
     await source.read(fill.add)
     const grid = fill.finish()
+    // In memory parton densities are the absent density and a fragmentation set carries NO_TARGET (sets/header.ts).
+    const { density, target, ...rest } = tableHeader
     const header: SetHeader = cleanHeader({
-      ...tableHeader, family: tableHeader.family ?? tableHeader.name, version: tableHeader.version ?? '1',
-      order: 'LO', memberCount: grid.members.length
+      ...rest, family: tableHeader.family ?? tableHeader.name, version: tableHeader.version ?? '1',
+      order: 'LO', memberCount: grid.members.length,
+      ...(density?.type === 'fragmentation' ? { target: { ...NO_TARGET }, density } : { target: target! })
     })
     const set: ErrorSet = { header, x: grid.x, q2: grid.q2, flavours: grid.flavours, members: grid.members }
     const bytes = writeSetFile(set)

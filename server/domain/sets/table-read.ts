@@ -5,7 +5,7 @@ import { createReadStream } from 'node:fs'
 import { open } from 'node:fs/promises'
 import { createGunzip } from 'node:zlib'
 import { asyncBufferFromFile, parquetMetadataAsync, parquetRead, parquetSchema } from 'hyparquet'
-import { layoutOf, readDecimal, tableError, TableError, type TableLayout } from './table-format'
+import { layoutOf, readDecimal, tableError, TableError, type FractionAxis, type TableLayout } from './table-format'
 import type { RecordSink } from './table-grid'
 
 export type TableFormat = 'csv' | 'tsv' | 'parquet'
@@ -84,7 +84,7 @@ function cellText(raw: string): string {
 }
 
 /** A CSV or TSV table: the header row names the layout, every later row is a record. */
-export async function delimitedSource(path: string, format: 'csv' | 'tsv', gzip: boolean): Promise<TableSource> {
+export async function delimitedSource(path: string, format: 'csv' | 'tsv', gzip: boolean, axis: FractionAxis = 'x'): Promise<TableSource> {
   const delimiter = format === 'tsv' ? '\t' : ','
   let header: { cells: string[], line: number } | undefined
   await eachLine(path, gzip, (text, line) => {
@@ -93,7 +93,7 @@ export async function delimitedSource(path: string, format: 'csv' | 'tsv', gzip:
   })
   if (!header) throw new TableError('the table is empty: it needs a header row and data rows')
   const { line: headerLine, cells: names } = header
-  const layout = layoutOf(names, column => ({ line: headerLine, column }))
+  const layout = layoutOf(names, column => ({ line: headerLine, column }), axis)
   const width = names.length
   const read = async (sink: RecordSink) => {
     const cells = new Float64Array(width)
@@ -124,7 +124,7 @@ export async function delimitedSource(path: string, format: 'csv' | 'tsv', gzip:
 const asNumber = (v: unknown) => typeof v === 'number' ? v : typeof v === 'bigint' ? Number(v) : Number.NaN
 
 /** A Parquet table: its top-level column names give the layout; read one row group at a time. */
-export async function parquetSource(path: string): Promise<TableSource> {
+export async function parquetSource(path: string, axis: FractionAxis = 'x'): Promise<TableSource> {
   const file = await asyncBufferFromFile(path)
   let metadata
   try {
@@ -133,7 +133,7 @@ export async function parquetSource(path: string): Promise<TableSource> {
     throw new TableError(`the Parquet file cannot be read: ${(err as Error).message}`)
   }
   const columns = parquetSchema(metadata).children.map(c => c.element.name)
-  const layout = layoutOf(columns, column => ({ rowGroup: 0, column, columnName: columns[column - 1] }))
+  const layout = layoutOf(columns, column => ({ rowGroup: 0, column, columnName: columns[column - 1] }), axis)
   const read = async (sink: RecordSink) => {
     let rowStart = 0
     for (let g = 0; g < metadata.row_groups.length; g++) {

@@ -4,14 +4,26 @@
 // value below the threshold comes before the one above, as the importer expects.
 import { Readable } from 'node:stream'
 import { parquetWriteBuffer } from 'hyparquet-writer'
-import type { ErrorSet } from '../../../shared/physics/types'
-import { writeDecimal } from './table-format'
+import { fileSetHeader, fractionAxisOf } from '../../../shared/physics/sets/header'
+import type { ErrorSet, SetHeader } from '../../../shared/physics/types'
+import { tableNames, writeDecimal } from './table-format'
 
 export type TableLayoutName = 'long' | 'wide'
 
-/** The header row of a layout. */
+/** The header row of a layout (member, z, q2, … and zD for a fragmentation set). */
 export function tableColumns(set: ErrorSet, layout: TableLayoutName): string[] {
-  return layout === 'long' ? ['member', 'x', 'q2', 'pdg', 'xf'] : ['member', 'x', 'q2', ...set.flavours.map(String)]
+  const { keys, value } = tableNames(fractionAxisOf(set.header.density))
+  return layout === 'long' ? [...keys, 'pdg', value] : [...keys, ...set.flavours.map(String)]
+}
+
+/**
+ * The JSON sidecar of a table: the set's header as a version-2 file writes it (density always
+ * said, no target for a fragmentation set) without `memberCount` and `order`, which the import
+ * takes from the table.
+ */
+export function tableSidecar(header: SetHeader) {
+  const { memberCount: _count, order: _order, ...rest } = fileSetHeader(header)
+  return rest
 }
 
 /**
@@ -59,7 +71,7 @@ export const PARQUET_ROW_GROUP = 100_000
 
 /**
  * The table as a Parquet file: member and pdg INT32, x, q2 and the values DOUBLE (bit-exact),
- * the set's header JSON in the key-value metadata under "sheaf.header".
+ * the set's sidecar header (tableSidecar) in the key-value metadata under "sheaf.header".
  */
 export function parquetTable(set: ErrorSet, layout: TableLayoutName): Uint8Array {
   const nx = set.x.length
@@ -89,17 +101,18 @@ export function parquetTable(set: ErrorSet, layout: TableLayoutName): Uint8Array
       }
     }
   }
+  const names = tableColumns(set, layout)
   const columnData = [
     { name: 'member', data: member, type: 'INT32' as const, nullable: false },
-    { name: 'x', data: x, type: 'DOUBLE' as const, nullable: false },
+    { name: names[1]!, data: x, type: 'DOUBLE' as const, nullable: false },
     { name: 'q2', data: q2, type: 'DOUBLE' as const, nullable: false },
     ...(pdg
-      ? [{ name: 'pdg', data: pdg, type: 'INT32' as const, nullable: false }, { name: 'xf', data: values[0]!, type: 'DOUBLE' as const, nullable: false }]
+      ? [{ name: 'pdg', data: pdg, type: 'INT32' as const, nullable: false }, { name: names[4]!, data: values[0]!, type: 'DOUBLE' as const, nullable: false }]
       : set.flavours.map((f, i) => ({ name: String(f), data: values[i]!, type: 'DOUBLE' as const, nullable: false })))
   ]
   const buffer = parquetWriteBuffer({
     columnData, rowGroupSize: PARQUET_ROW_GROUP,
-    kvMetadata: [{ key: 'sheaf.header', value: JSON.stringify(set.header) }]
+    kvMetadata: [{ key: 'sheaf.header', value: JSON.stringify(tableSidecar(set.header)) }]
   })
   return new Uint8Array(buffer)
 }

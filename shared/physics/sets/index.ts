@@ -26,3 +26,6 @@ export { checkXNodes, checkQ2Nodes, checkFlavours, checkMemberCount, checkValues
 export type { ToyQ2Options, ToySetOptions } from './toy'
 export { toyXNodes, toyQ2Nodes, toyFlavours, toyXf, toyErrorSet } from './toy'
 export { toyZD } from './toy-fragmentation'
+
+// Words for what a set holds (pages, exports, CLI)
+export { densityText, densityKey, densityKeyText, densityAxes, flavourText } from './density-words'

@@ -1,6 +1,6 @@
 import { createGzip } from 'node:zlib'
 import { loadErrorSet } from '../../../../../domain/sets/store'
-import { delimitedStream, parquetTable } from '../../../../../domain/sets/table-write'
+import { delimitedStream, parquetTable, tableSidecar } from '../../../../../domain/sets/table-write'
 
 // Export an error set's members as a neutral table (viewers): ?format=csv|tsv|parquet,
 // ?layout=long|wide, ?gzip=1 (CSV/TSV), or ?header=1 for the JSON sidecar holding the set header.
@@ -11,9 +11,8 @@ export default defineEventHandler(async (event) => {
   const set = await loadErrorSet(useDB(), row.id)
   const base = `${row.name}-${row.version}`.replace(/[^\w.-]+/g, '_')
   if (query.header === '1') {
-    const { memberCount: _count, order: _order, ...header } = set.header
     setResponseHeaders(event, { 'content-type': 'application/json', 'content-disposition': `attachment; filename="${base}.header.json"` })
-    return header
+    return tableSidecar(set.header)
   }
   if (query.format === 'parquet') {
     setResponseHeaders(event, { 'content-type': 'application/vnd.apache.parquet', 'content-disposition': `attachment; filename="${base}-${query.layout}.parquet"` })
