@@ -14,6 +14,7 @@ import { BAND_CSV_HEADER, bandCsvRows, bandReport, type BandReport } from '../ba
 import { BadInputError, UsageError } from '../errors'
 import { readJson, type CliIo } from '../io'
 import { toCsv, toJson } from '../output'
+import { densityText } from '../../../shared/physics/sets/density-words'
 import { loadSet, setAlphas } from '../set-file'
 
 export const computeVerb: VerbSpec = {
@@ -56,6 +57,8 @@ Bins are numbered from 1 (as in the engine's messages), members from 0 (the cent
 /** One set's result in compute's output. */
 export interface ComputedSet {
   set: string
+  /** What the set holds, in words ("parton densities in the proton", "fragmentation into π⁺"). */
+  holds: string
   file: string
   kind: ErrorSet['header']['kind']
   /** CL of the set's members, percent. */
@@ -154,7 +157,7 @@ function computeSet(spec: StudySpec, file: string, set: ErrorSet, outside: 'erro
     if (!(e instanceof RangeError)) throw e
   }
   const out: ComputedSet = {
-    set: header.name, file, kind: header.kind, clPercent: header.confidenceLevelPercent, members, bins, values: rows, bands,
+    set: header.name, holds: densityText(header), file, kind: header.kind, clPercent: header.confidenceLevelPercent, members, bins, values: rows, bands,
     scaleVariation: scale.report, ...(scale.error ? { scaleVariationError: scale.error } : {}), quadrature
   }
   if (alphasMembers) out.alphasMembers = alphasMembers

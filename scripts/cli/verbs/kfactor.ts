@@ -9,6 +9,7 @@ import { BadInputError, UsageError } from '../errors'
 import type { CliIo } from '../io'
 import { IMPACT_INPUT_HELP, IMPACT_INPUT_OPTIONS, kFactorReport, LO_CAUTION, studyValues } from '../impact-input'
 import { toCsv, toJson } from '../output'
+import { densityText } from '../../../shared/physics/sets/density-words'
 import { loadSet } from '../set-file'
 
 export const kfactorVerb: VerbSpec = {
@@ -82,6 +83,7 @@ export function runKfactor(argv: readonly string[], io: CliIo): number {
   }
   io.stdout(toJson({
     set: set.header.name,
+    holds: densityText(set.header),
     study: study.title,
     prescription,
     clPercent: clTo,

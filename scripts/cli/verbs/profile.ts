@@ -10,6 +10,7 @@ import { BadInputError, UsageError } from '../errors'
 import type { CliIo } from '../io'
 import { IMPACT_INPUT_HELP, IMPACT_INPUT_OPTIONS, kFactorReport, LO_CAUTION, readMeasurement, studyValues } from '../impact-input'
 import { toCsv, toJson } from '../output'
+import { densityText } from '../../../shared/physics/sets/density-words'
 import { loadSet, saveSet } from '../set-file'
 
 export const profileVerb: VerbSpec = {
@@ -95,6 +96,7 @@ export function runProfile(argv: readonly string[], io: CliIo): number {
   }
   io.stdout(toJson({
     set: set.header.name,
+    holds: densityText(set.header),
     study: study.title,
     measurement: measurementFile,
     points: result.points,

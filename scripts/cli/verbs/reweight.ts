@@ -11,6 +11,7 @@ import { BadInputError, UsageError } from '../errors'
 import type { CliIo } from '../io'
 import { IMPACT_INPUT_HELP, IMPACT_INPUT_OPTIONS, kFactorReport, LO_CAUTION, readMeasurement, studyValues } from '../impact-input'
 import { toCsv, toJson } from '../output'
+import { densityText } from '../../../shared/physics/sets/density-words'
 import { loadSet, saveSet } from '../set-file'
 
 /** The α grid of the printed χ² profile: 0.2 to 4 in steps of 0.02. */
@@ -119,6 +120,7 @@ export function runReweight(argv: readonly string[], io: CliIo): number {
   }
   io.stdout(toJson({
     set: set.header.name,
+    holds: densityText(set.header),
     study: study.title,
     measurement: measurementFile,
     weights: form,

@@ -10,6 +10,8 @@ import { BadInputError, UsageError } from '../errors'
 import type { CliIo } from '../io'
 import { IMPACT_INPUT_HELP, IMPACT_INPUT_OPTIONS, kFactorReport, LO_CAUTION, readMeasurement, studyValues } from '../impact-input'
 import { toCsv, toJson } from '../output'
+import { densityText } from '../../../shared/physics/sets/density-words'
+import { fractionAxisOf } from '../../../shared/physics/sets/header'
 import { loadSet } from '../set-file'
 
 /** Default Q² of the map, GeV² (our choice: a scale inside every demo grid). */
@@ -92,17 +94,19 @@ export function runSensitivity(argv: readonly string[], io: CliIo): number {
       const p = i % points
       return [m.flavour, b + 1, xs[p]!, m.map.cosPhi[i]!, m.sensitivity === null ? Number.NaN : m.sensitivity[i]!]
     }))
-    io.stdout(toCsv(['flavour', 'bin', 'x', 'cosPhi', 'sensitivity'], rows))
+    // A fragmentation set's momentum fraction is z (the --x values are read as z).
+    io.stdout(toCsv(['flavour', 'bin', fractionAxisOf(set.header.density), 'cosPhi', 'sensitivity'], rows))
     return 0
   }
   const rowsOf = (values: Float64Array) => Array.from({ length: bins }, (_, b) => values.subarray(b * points, (b + 1) * points))
   io.stdout(toJson({
     set: set.header.name,
+    holds: densityText(set.header),
     kind,
     study: study.title,
     measurement: measurementFile ?? null,
     q2GeV2: q2,
-    x: xs,
+    [fractionAxisOf(set.header.density)]: xs,
     predictionError68: errors,
     kFactors: kFactorReport(study.kFactors),
     flavours: maps.map(m => ({

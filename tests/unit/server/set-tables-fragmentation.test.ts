@@ -1,4 +1,4 @@
-import { mkdtempSync, rmSync, writeFileSync } from 'node:fs'
+import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs'
 import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
@@ -88,5 +88,26 @@ describe('set tables of a fragmentation set', () => {
     const fields = (e.data as { fields: Record<string, string> }).fields
     expect(Object.keys(fields)).toEqual([field])
     expect(fields[field]).toContain(text)
+  })
+})
+
+describe('sample fragmentation tables (scripts/make-sample-fragmentation.ts)', () => {
+  const samples = join(__dirname, '../../../samples/tables')
+  const sidecarText = readFileSync(join(samples, 'toy-ff-table.header.json'), 'utf8')
+
+  it('every form imports with the sidecar to the same set of fragmentation into π⁺', async () => {
+    const header = parseTableHeader(sidecarText, 'The sidecar')
+    const sets = []
+    for (const name of ['toy-ff-table-long.csv', 'toy-ff-table-wide.tsv', 'toy-ff-table-wide.csv.gz', 'toy-ff-table-long.parquet']) {
+      const { set: back } = await readSetTable(join(samples, name), name, header, 1e9)
+      expect(back.header.density, name).toEqual({ type: 'fragmentation', hadron: 'pi+' })
+      sets.push(back)
+    }
+    for (const s of sets.slice(1)) s.members.forEach((m, k) => expect(bits(m).equals(bits(sets[0]!.members[k]!))).toBe(true))
+  })
+
+  it('bad-ff-x-column.csv is refused at line 1, column 2', async () => {
+    const e = await rejection(() => readSetTable(join(samples, 'bad-ff-x-column.csv'), 'bad-ff-x-column.csv', parseTableHeader(sidecarText, 'The sidecar'), 1e9))
+    expect(e.message).toContain('line 1, column 2: expected the column "z" but found "x"')
   })
 })

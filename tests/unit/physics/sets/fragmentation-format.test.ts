@@ -169,3 +169,30 @@ describe('TOY fragmentation functions are physically sensible (sample data)', ()
     if (hadron === 'pi+') expect(toyZD(hadron, 2, 0.6, 10, variable)).toBeGreaterThan(toyZD(hadron, 1, 0.6, 10, variable))
   })
 })
+
+describe('sample fragmentation set files (scripts/make-sample-fragmentation.ts)', () => {
+  const read = (name: string) => new Uint8Array(readFileSync(fileURLToPath(new URL(`../../../../samples/sets/${name}`, import.meta.url))))
+
+  it('toy-ff-piplus.sheafset is a version-2 Hessian set of fragmentation into π⁺, marked as a toy, positive everywhere', () => {
+    const bytes = read('toy-ff-piplus.sheafset')
+    expect(headerOf(bytes).doc.formatVersion).toBe(2)
+    const set = parseSetFile(bytes)
+    expect(set.header.density).toEqual({ type: 'fragmentation', hadron: 'pi+' })
+    expect(set.header.kind).toBe('hessian-pairs')
+    expect(set.members).toHaveLength(9)
+    expect(set.header.provenance).toMatch(/^TOY/)
+    // Positive where the parton is active (c and b vanish below their thresholds, common practice).
+    for (const m of set.members) expect(m.every(v => v >= 0)).toBe(true)
+  })
+
+  it.each([
+    ['bad-ff-target.sheafset', 'set.target', 'has no target'],
+    ['bad-ff-hadron.sheafset', 'set.density.hadron', 'hadron must be one of'],
+    ['bad-ff-axis.sheafset', 'grid.x', 'names its momentum-fraction axis z']
+  ])('%s is refused at %s', (name, path, text) => {
+    const e = failure(() => parseSetFile(read(name)))
+    expect(e.path).toBe(path)
+    expect(e.byteOffset).toBe(SET_FILE_PREAMBLE_BYTES)
+    expect(e.message).toContain(text)
+  })
+})
