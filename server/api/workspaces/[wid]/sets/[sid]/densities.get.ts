@@ -5,9 +5,8 @@ import { densityOf } from '../../../../../../shared/physics/fragmentation/specie
 import { densityText } from '../../../../../../shared/physics/sets/density-words'
 import { densityBands, linearSpacedX, logSpacedX } from '../../../../../domain/sets/densities'
 import { setPrescription } from '../../../../../domain/results/results'
-import { engineRejection } from '../../../../../domain/errors'
+import { engineRejection, fail } from '../../../../../domain/errors'
 import { findSet } from '../../../../../domain/lookups'
-import { fail } from '../../../../../domain/errors'
 
 // x·f(x, Q²) of chosen flavours (?flavours=21,2,-2,uv …) at ?q2= with the set's band
 // (?prescription=, default by kind; ?cl=, default 68), on ?points= x values spaced evenly in ln x
