@@ -5,6 +5,7 @@ import type { ErrorSetRow } from '../../database/schema'
 import { conflictOnUnique, fail } from '../errors'
 import { findJsonProblem } from '../../../shared/utils/storable'
 import { formatPath } from '../../../shared/physics/json-path'
+import { densityOf } from '../../../shared/physics/fragmentation/species'
 
 /** A set's row without its file. */
 export type SetRow = Omit<ErrorSetRow, 'content'>
@@ -19,7 +20,7 @@ export function publicSet(s: SetRow, addedBy: { id: string, name: string } | nul
     id: s.id, name: s.name, family: s.family, version: s.version, kind: s.kind,
     memberCount: s.memberCount, confidenceLevelPercent: s.confidenceLevelPercent,
     xMin: s.xMin, xMax: s.xMax, q2MinGeV2: s.q2Min, q2MaxGeV2: s.q2Max,
-    target: s.target, origin: s.origin, fileName: s.fileName, sizeBytes: s.sizeBytes, sha256: s.sha256,
+    target: s.target, density: densityOf(s.header), origin: s.origin, fileName: s.fileName, sizeBytes: s.sizeBytes, sha256: s.sha256,
     addedBy, createdAt: s.createdAt, updatedAt: s.updatedAt,
     ...(withHeader ? { header: s.header } : {})
   }
