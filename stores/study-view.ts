@@ -16,7 +16,8 @@ import { PRESCRIPTION_LABELS } from '#shared/utils/prescriptions'
 export type VariableLayout = 'point' | 'range' | 'mixed'
 
 const NAMES: Record<VariableName, { label: string, unit?: string }> = {
-  x: { label: 'x' }, q2: { label: 'Q²', unit: 'GeV²' }, y: { label: 'y' }, m: { label: 'M', unit: 'GeV' }
+  x: { label: 'x' }, q2: { label: 'Q²', unit: 'GeV²' }, y: { label: 'y' }, m: { label: 'M', unit: 'GeV' },
+  z: { label: 'z' }, sqrtS: { label: '√s', unit: 'GeV' }
 }
 
 /** The layout each variable has in `bins`; a variable no bin gives yet takes `fallback`. */
@@ -246,8 +247,8 @@ export function sciText(v: number): string {
   return `${Number(m) === 1 ? '' : `${Number(m)}×`}10${power}`
 }
 
-/** The order a reader names a bin's variables in: x, Q², then mass before rapidity. */
-const READING_ORDER: readonly VariableName[] = ['x', 'q2', 'm', 'y']
+/** The order a reader names a bin's variables in: √s, x, z, Q², then mass before rapidity. */
+const READING_ORDER: readonly VariableName[] = ['sqrtS', 'x', 'z', 'q2', 'm', 'y']
 
 /** A bin as a reader names it: "M 60–80 GeV, y −1–1", "x 0.01, Q² 10 GeV²". */
 export function binText(bin: SpecBin | undefined): string {
@@ -318,7 +319,7 @@ export interface ResultDetail extends ResultRow {
   caution: string
 }
 
-const BIN_KEYS = ['x', 'xMin', 'xMax', 'q2', 'q2Min', 'q2Max', 'y', 'yMin', 'yMax', 'm', 'mMin', 'mMax', 'label'] as const
+const BIN_KEYS = ['x', 'xMin', 'xMax', 'q2', 'q2Min', 'q2Max', 'y', 'yMin', 'yMax', 'm', 'mMin', 'mMax', 'z', 'zMin', 'zMax', 'sqrtS', 'sqrtSMin', 'sqrtSMax', 'label'] as const
 
 /** Whether two lists of bins are the same kinematics (key order does not matter; stored JSON is reordered). */
 export function sameBins(a: readonly SpecBin[], b: readonly SpecBin[]): boolean {
@@ -378,7 +379,7 @@ export async function useStudyResults(workspaceId: Ref<string | null>, study: Re
   return { done, details: data, pending, error, refresh }
 }
 
-const AXES: Record<VariableName, AxisSpec> = { x: { label: 'x', log: true }, q2: { label: 'Q²', unit: 'GeV²', log: true }, m: { label: 'M', unit: 'GeV', log: true }, y: { label: 'y' } }
+const AXES: Record<VariableName, AxisSpec> = { x: { label: 'x', log: true }, q2: { label: 'Q²', unit: 'GeV²', log: true }, m: { label: 'M', unit: 'GeV', log: true }, y: { label: 'y' }, z: { label: 'z' }, sqrtS: { label: '√s', unit: 'GeV' } }
 
 /** True when all values are positive and span more than a factor 30 (worth a log axis). */
 export function spansDecades(values: ArrayLike<number>): boolean {

@@ -18,7 +18,7 @@ import type { SeedContext } from './context'
 import type { DemoSetKey } from './02-demo-sets'
 
 /** A set's row without its file. */
-type ErrorSetRow = Omit<FullSetRow, 'content'>
+export type ErrorSetRow = Omit<FullSetRow, 'content'>
 
 export interface DemoStudy {
   name: string
@@ -35,7 +35,10 @@ export interface DemoStudy {
   measurement?: { name: string, points: string, correlation?: string, correlationOf: 'syst' | 'total' }
 }
 
-const DEMO_NOTE = 'Demo data: the Kestrel Forward Collaboration, its people and the error sets are invented; the numbers are Sheaf\'s leading-order predictions, not physics results.'
+/** What a demo study says and computes, without the sets it runs on. */
+export type DemoStudyText = Pick<DemoStudy, 'name' | 'description' | 'binsFile' | 'spec'>
+
+export const DEMO_NOTE = 'Demo data: the Kestrel Forward Collaboration, its people and the error sets are invented; the numbers are Sheaf\'s leading-order predictions, not physics results.'
 const FE = { type: 'nucleus', z: 26, a: 56 } as const
 const AR = { type: 'nucleus', z: 18, a: 40 } as const
 
@@ -124,7 +127,7 @@ export function readDemoBins(file: string): BinRow[] {
 }
 
 /** The demo study's validated spec, or a RangeError naming the study and the first problem. */
-export async function demoSpec(d: DemoStudy): Promise<StudySpec> {
+export async function demoSpec(d: DemoStudyText): Promise<StudySpec> {
   // The engine is imported only when there is something to check or compute (see ensureResult).
   const { checkStudySpec } = await import('../../shared/physics/study/spec')
   const checked = checkStudySpec({ ...d.spec, bins: readDemoBins(d.binsFile) })
@@ -145,7 +148,7 @@ function readMeasurement(m: NonNullable<DemoStudy['measurement']>): MeasurementD
   return { ...points.data, correlation, correlationOf: m.correlationOf }
 }
 
-async function findOrCreateStudy(db: DB, workspaceId: string, analyst: string, d: DemoStudy, sets: ErrorSetRow[], second: ErrorSetRow | null): Promise<Study> {
+export async function findOrCreateStudy(db: DB, workspaceId: string, analyst: string, d: DemoStudyText, sets: ErrorSetRow[], second: ErrorSetRow | null): Promise<Study> {
   const [existing] = await db.select().from(t.studies).where(and(eq(t.studies.workspaceId, workspaceId), eq(t.studies.name, d.name)))
   // A study seeded before a demo set joined it gets that set added (once); nothing else changes.
   const missing = existing ? sets.filter(s => !existing.setIds.includes(s.id)) : []
@@ -172,7 +175,7 @@ async function findOrCreateStudy(db: DB, workspaceId: string, analyst: string, d
  * The finished result of `study` on `set`: the newest done version if there is one; else a
  * pending version left by an interrupted seed, or a new one, computed here.
  */
-async function ensureResult(db: DB, study: Study, set: ErrorSetRow, second: ErrorSetRow | null, analyst: string): Promise<{ result: Result, computed: boolean }> {
+export async function ensureResult(db: DB, study: Study, set: ErrorSetRow, second: ErrorSetRow | null, analyst: string): Promise<{ result: Result, computed: boolean }> {
   const versions = await db.select().from(t.results)
     .where(and(eq(t.results.studyId, study.id), eq(t.results.setId, set.id))).orderBy(desc(t.results.version))
   const done = versions.find(r => r.state === 'done')

@@ -54,13 +54,16 @@ const DIFFERENTIAL: Record<string, VariableName[]> = {
 }
 
 const SYMBOL: Record<VariableName, { text: string, latex: string }> = {
-  x: { text: 'x', latex: 'x' }, q2: { text: 'Q²', latex: 'Q^{2}' }, y: { text: 'y', latex: 'y' }, m: { text: 'M', latex: 'M' }
+  x: { text: 'x', latex: 'x' }, q2: { text: 'Q²', latex: 'Q^{2}' }, y: { text: 'y', latex: 'y' }, m: { text: 'M', latex: 'M' },
+  z: { text: 'z', latex: 'z' }, sqrtS: { text: '√s', latex: '\\sqrt{s}' }
 }
 
 /** LaTeX of the kernels' plain quantities that are not derivatives. */
 const QUANTITY_LATEX: Record<string, string> = {
   'F₂': 'F_{2}', 'F_L': 'F_{L}', '2xF₁': '2xF_{1}', 'xF₃': 'xF_{3}', 'σ_r': '\\sigma_{r}', 'σ': '\\sigma',
-  'user expression': '\\mathrm{user\\ expression}'
+  'user expression': '\\mathrm{user\\ expression}',
+  '(1/σ_tot) dσ^h/dz': '(1/\\sigma_{\\mathrm{tot}})\\,\\mathrm{d}\\sigma^{h}/\\mathrm{d}z',
+  'M^h': 'M^{h}', 'M^h/M^h̄': 'M^{h}/M^{\\bar{h}}', 'M^h − M^h̄': 'M^{h} - M^{\\bar{h}}', 'R^{h/h′}': 'R^{h/h\\prime}'
 }
 
 const SUPER: Record<string, string> = { 2: '²', 3: '³', 4: '⁴' }
@@ -136,6 +139,9 @@ export function binObservable(spec: ObservableSpec, row: ObservableSpec['bins'][
   const names = kernelVariables(def, options).map(v => v.name)
   const layout = layoutOf(row, names)
   if (!def.composite) return singleObservable(def, options, layout, mode)
+  // A composite with a name of its own (multiplicities and their ratios): a pure number per bin,
+  // the ratio of the bin's integrals whatever the layout.
+  if (def.quantity) return { name: def.quantity, latex: QUANTITY_LATEX[def.quantity] ?? '', unit: null }
   // A ratio or asymmetry is a pure number; its title names the quantity of its parts.
   const [part] = def.parts(options)
   const inner = kernelDefinition(part.kernel) as KernelDefinition

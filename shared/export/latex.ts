@@ -105,6 +105,8 @@ const SHORT_HEADS: Record<string, { head: string, unit?: string }> = {
   q2: { head: '$Q^{2}$', unit: 'GeV$^{2}$' }, q2Min: { head: '$Q^{2}_{\\min}$', unit: 'GeV$^{2}$' }, q2Max: { head: '$Q^{2}_{\\max}$', unit: 'GeV$^{2}$' },
   y: { head: '$y$' }, yMin: { head: '$y_{\\min}$' }, yMax: { head: '$y_{\\max}$' },
   m: { head: '$M$', unit: 'GeV' }, mMin: { head: '$M_{\\min}$', unit: 'GeV' }, mMax: { head: '$M_{\\max}$', unit: 'GeV' },
+  z: { head: '$z$' }, zMin: { head: '$z_{\\min}$' }, zMax: { head: '$z_{\\max}$' },
+  sqrtS: { head: '$\\sqrt{s}$', unit: 'GeV' }, sqrtSMin: { head: '$\\sqrt{s}_{\\min}$', unit: 'GeV' }, sqrtSMax: { head: '$\\sqrt{s}_{\\max}$', unit: 'GeV' },
   label: { head: 'bin' }, kFactor: { head: '$K$' }, kFactorError: { head: '$\\delta K$' }
 }
 

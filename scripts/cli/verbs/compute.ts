@@ -16,6 +16,7 @@ import { readJson, type CliIo } from '../io'
 import { toCsv, toJson } from '../output'
 import { densityText } from '../../../shared/physics/sets/density-words'
 import { loadSet, setAlphas } from '../set-file'
+import { slotIssues } from '../../../shared/utils/set-match'
 
 export const computeVerb: VerbSpec = {
   name: 'compute',
@@ -36,8 +37,13 @@ quadrature).
 The output is a values document that 'sheaf bands' reads.
 
 Options:
-  --second <set-file>      second set: beam 2 of a pA collision, or the nuclear set of a
-                           nuclear ratio (members paired index by index with each main set's)
+  --second <set-file>      second set: beam 2 of a pA collision, the nuclear set of a
+                           nuclear ratio, the fragmentation set of a semi-inclusive
+                           multiplicity or the second species of an e+e- species ratio
+                           (members paired index by index with each main set's; a set of
+                           one member is held at its central member)
+Each set must hold what its slot reads: parton densities, or fragmentation functions for
+epem-hadron and epem-species-ratio (main and second) and the sidis-* kernels (second).
   --outside error|freeze   bins reaching outside a set's grid: refuse (default) or evaluate
                            at the grid edge and list them under outsideBins
   --format json|csv        json (default) or CSV
@@ -165,6 +171,18 @@ function computeSet(spec: StudySpec, file: string, set: ErrorSet, outside: 'erro
   return out
 }
 
+/**
+ * Refuses a set file in a slot that reads the other density, a missing or unused --second (the
+ * web app's check, shared/utils/set-match.ts), naming the file.
+ */
+function checkSlots(spec: StudySpec, sets: ReadonlyArray<{ file: string, set: ErrorSet }>, second: { file: string, set: ErrorSet } | undefined) {
+  const described = (s: ErrorSet) => ({ name: s.header.name, version: s.header.version, density: s.header.density ?? null })
+  const issues = slotIssues(spec.kernel, sets.map(s => described(s.set)), second ? described(second.set) : null)
+  if (!issues.length) return
+  const where = (path: Array<string | number>) => (path[0] === 'setIds' ? sets[path[1] as number]!.file : second ? `--second ${second.file}` : '--second')
+  throw new BadInputError(issues.map(i => `${where(i.path)}: ${i.message.replace(/^[^:]+: /, '')}`).join('\n'))
+}
+
 /** Runs `compute`; returns the exit code. */
 export function runCompute(argv: readonly string[], io: CliIo): number {
   const args = parseVerbArgs(computeVerb, argv)
@@ -179,7 +197,9 @@ export function runCompute(argv: readonly string[], io: CliIo): number {
   const spec = loadStudy(io, studyFile)
   const secondFile = stringOption(args, 'second')
   const second = secondFile === undefined ? undefined : { file: secondFile, set: loadSet(io, secondFile) }
-  const sets = setFiles.map(file => computeSet(spec, file, loadSet(io, file), outside, second))
+  const loaded = setFiles.map(file => ({ file, set: loadSet(io, file) }))
+  checkSlots(spec, loaded, second)
+  const sets = loaded.map(({ file, set }) => computeSet(spec, file, set, outside, second))
 
   if (format === 'csv') {
     // Sets are named by their header; when two share a name, their file tells them apart.

@@ -22,7 +22,9 @@ const COLUMN_LABELS: Record<string, { label: string, unit?: string }> = {
   x: { label: 'x' }, xMin: { label: 'x min' }, xMax: { label: 'x max' },
   q2: { label: 'Q²', unit: 'GeV²' }, q2Min: { label: 'Q² min', unit: 'GeV²' }, q2Max: { label: 'Q² max', unit: 'GeV²' },
   y: { label: 'y' }, yMin: { label: 'y min' }, yMax: { label: 'y max' },
-  m: { label: 'M', unit: 'GeV' }, mMin: { label: 'M min', unit: 'GeV' }, mMax: { label: 'M max', unit: 'GeV' }
+  m: { label: 'M', unit: 'GeV' }, mMin: { label: 'M min', unit: 'GeV' }, mMax: { label: 'M max', unit: 'GeV' },
+  z: { label: 'z' }, zMin: { label: 'z min' }, zMax: { label: 'z max' },
+  sqrtS: { label: '√s', unit: 'GeV' }, sqrtSMin: { label: '√s min', unit: 'GeV' }, sqrtSMax: { label: '√s max', unit: 'GeV' }
 }
 
 /** Kinematic columns used by any bin of the spec, in the engine's column order (label first if any). */

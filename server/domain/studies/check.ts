@@ -1,6 +1,7 @@
 // Checks of a study against the engine (structure, kernel, bins) and against the sets it runs
 // on (kinematic reach). No Nitro imports: the worker re-checks a snapshot before running.
 import { makeAlphas } from '../../../shared/physics/alphas'
+import { isFragmentation } from '../../../shared/physics/fragmentation/species'
 import { MZ_GEV } from '../../../shared/physics/constants'
 import { ExpressionError } from '../../../shared/physics/kernels/expression'
 import { kernelDefinition, type KernelContext, type KernelDefinition } from '../../../shared/physics/kernels/registry'
@@ -36,14 +37,17 @@ export const axesOf = (s: SetForCheck): StudyAxes['main'] => ({
 
 /**
  * Which of two sets is the engine's main set and which its second (beam 2 of a p–A collision,
- * the nuclear set of a nuclear ratio): the one with a nucleus target is the second. `varying` is
+ * the nuclear set of a nuclear ratio): the one with a nucleus target is the second, unless the
+ * partner holds fragmentation functions. `varying` is
  * the set whose members a result evaluates, `partner` the study's second set, held at its central
  * member. Without a partner the varying set is the main one.
  */
 export function pairRoles<T extends { header: SetHeader }>(varying: T, partner: T | null | undefined) {
   if (!partner) return { main: varying, second: null, varyingRole: 'main' as const }
   const nuclear = (s: T) => s.header.target?.type === 'nucleus'
-  return nuclear(varying) && !nuclear(partner)
+  // A fragmentation set is always the second set of a semi-inclusive study (the slot check put it
+  // there), so a nuclear parton set beside it stays the main one.
+  return nuclear(varying) && !nuclear(partner) && !isFragmentation(partner.header)
     ? { main: partner, second: varying, varyingRole: 'second' as const }
     : { main: varying, second: partner, varyingRole: 'main' as const }
 }

@@ -3,6 +3,8 @@ import type { DB } from '../../database/client'
 import { tables as t } from '../../database/client'
 import type { Result, Study } from '../../database/schema'
 import { resultUnit, type StudySpec } from '../../../shared/physics/study/spec'
+import type { SetHeader } from '../../../shared/physics/types'
+import { slotIssues } from '../../../shared/utils/set-match'
 import { DomainError, fail } from '../errors'
 import { setsOfWorkspace } from '../sets/library'
 import { checkSpec, reachProblems, runSizeProblem, studySizeProblem, type ReachProblem } from './check'
@@ -44,7 +46,9 @@ export interface StudyInput {
  * The validated spec of a study, its sets and second set, or: 400 with `data.issues` (engine
  * issues located by bin and column, or a set that is not in the workspace), 413 when the study
  * is over the bins or quadrature-points budget or a set's members × bins is over the run budget
- * (server/domain/limits.ts), 422 with `data.issues` when a bin lies beyond the kinematic limit
+ * (server/domain/limits.ts), 400 with `data.issues` at `setIds[i]` / `secondSetId` for a set in a
+ * slot that reads the other density (parton densities or fragmentation functions), or a missing
+ * or unused second set (shared/utils/set-match.ts `slotIssues`), 422 with `data.issues` when a bin lies beyond the kinematic limit
  * or outside a set's grid. The budgets come before the reach check, which expands every point.
  */
 export async function validateStudy(db: DB, workspaceId: string, input: StudyInput) {
@@ -56,6 +60,8 @@ export async function validateStudy(db: DB, workspaceId: string, input: StudyInp
   if (tooLarge) throw tooLarge
   const sets = await setsOfWorkspace(db, workspaceId, input.setIds)
   const [second] = input.secondSetId ? await setsOfWorkspace(db, workspaceId, [input.secondSetId], 'secondSetId') : [null]
+  const slots = slotIssues(checked.spec.kernel, sets.map(densityOfRow), second ? densityOfRow(second) : null)
+  if (slots.length) fail(400, `${slots.length === 1 ? 'A set does not fit its slot' : `${slots.length} sets do not fit their slots`}: ${slots[0]!.message}`, { issues: slots })
   for (const s of sets) {
     const runTooLarge = runSizeProblem(checked.spec, s)
     if (runTooLarge) throw runTooLarge
@@ -64,6 +70,9 @@ export async function validateStudy(db: DB, workspaceId: string, input: StudyInp
   if (problems.length) throw reachError(problems)
   return { spec: checked.spec, sets, second: second ?? null }
 }
+
+/** A set row as the slot check reads it: its name, version and what its header says it holds. */
+const densityOfRow = (s: { name: string, version: string, header: SetHeader }) => ({ name: s.name, version: s.version, density: s.header.density ?? null })
 
 export function reachError(problems: ReachProblem[]) {
   return new DomainError(422, `${problems.length} bin${problems.length > 1 ? 's are' : ' is'} out of reach: ${problems[0]!.message}`, { issues: problems.map(p => ({ message: p.message, bin: p.bin, setId: p.setId, kind: p.kind })) })

@@ -22,6 +22,14 @@ export { f2PhotonWeights, etaGammaZ, gammaZWeights, ncTerm, f2NeutralCurrent, fl
 export type { CcBeam, CcStructure, CcOptions, CcCrossSectionOptions } from './dis-charged'
 export { ccWeights, ccStructureTerm, ccStructureFunction, ccCrossSectionTerm, d2SigmaDxDyChargedCurrent } from './dis-charged'
 
+// Hadron production with fragmentation functions
+export type { AnnihilationExchange, AnnihilationOptions } from './electron-positron'
+export { annihilationPropagators, effectiveCharge2, producedFlavours, annihilationTerm } from './electron-positron'
+export type { FragmentationCombination } from './semi-inclusive'
+export { fragmentationPairs, semiInclusiveYieldTerm, semiInclusiveQuarkSumTerm } from './semi-inclusive'
+export type { DensityType, KernelDensities } from './densities'
+export { DENSITY_WORDS, PARTON_SLOTS, SEMI_INCLUSIVE_SLOTS, ANNIHILATION_SLOTS, SPECIES_RATIO_SLOTS } from './densities'
+
 // Hadron–hadron
 export type { CollisionOptions } from './collider'
 export { collisionTerm, integrateOverRapidity } from './collider'
@@ -49,4 +57,4 @@ export { userWeightRowSchema, userKernelOptionsSchema, userKernelVariables, buil
 
 // Catalogue used by studies
 export type { VariableName, VariableSpec, KernelContext, PointEvaluator, KernelDefinition, CompositePart, CompositeDefinition, AnyKernelDefinition } from './registry'
-export { KERNEL_IDS, kernelDefinition, kernelCatalogue, kernelKind, kernelLabel } from './registry'
+export { KERNEL_IDS, kernelDefinition, kernelCatalogue, kernelKind, kernelLabel, kernelDensities } from './registry'

@@ -5,7 +5,11 @@ import type { CombineOp } from './ratios'
 import { ccCrossSectionTerm, ccStructureTerm } from './dis-charged'
 import { ncTerm } from './dis-neutral'
 import { drellYanTerm } from './drell-yan'
+import { annihilationTerm } from './electron-positron'
 import { hadronSchema } from './hadrons'
+import { semiInclusiveQuarkSumTerm, semiInclusiveYieldTerm } from './semi-inclusive'
+import type { KernelDensities } from './densities'
+import { ANNIHILATION_SLOTS, PARTON_SLOTS, SEMI_INCLUSIVE_SLOTS, SPECIES_RATIO_SLOTS } from './densities'
 import { higgsTerm } from './higgs'
 import { MH_GEV, PROTON_MASS_GEV } from '../constants'
 import type { LuminosityChannel } from './luminosity'
@@ -22,8 +26,12 @@ import { vectorBosonMassGeV, vectorBosonTerm } from './vector-boson'
  * asymmetries) name two parts evaluated member by member.
  */
 
-/** Kinematic variables a bin can fix or range over. `y` is the inelasticity for DIS kernels and the rapidity for hadron–hadron kernels. */
-export type VariableName = 'x' | 'q2' | 'y' | 'm'
+/**
+ * Kinematic variables a bin can fix or range over. `y` is the inelasticity for DIS kernels and the
+ * rapidity for hadron–hadron kernels; `z` the hadron's momentum fraction and `sqrtS` the e⁺e⁻
+ * centre-of-mass energy of the hadron-production kernels.
+ */
+export type VariableName = 'x' | 'q2' | 'y' | 'm' | 'z' | 'sqrtS'
 
 /** A bin variable of a kernel: its meaning, unit and domain check. */
 export interface VariableSpec {
@@ -39,6 +47,8 @@ const X: VariableSpec = { name: 'x', label: 'Bjorken x', gevPower: 0, check: v =
 const Q2: VariableSpec = { name: 'q2', label: 'Q² in GeV²', gevPower: 2, check: v => v > 0 && Number.isFinite(v) ? null : 'Q² must be a positive number of GeV²' }
 const INELASTICITY: VariableSpec = { name: 'y', label: 'inelasticity y', gevPower: 0, check: v => v > 0 && v <= 1 ? null : 'the inelasticity y must be in (0, 1]' }
 const RAPIDITY: VariableSpec = { name: 'y', label: 'rapidity y', gevPower: 0, check: v => Number.isFinite(v) && Math.abs(v) <= 20 ? null : 'the rapidity y must be a finite number with |y| ≤ 20' }
+const Z_FRACTION: VariableSpec = { name: 'z', label: 'hadron momentum fraction z', gevPower: 0, check: v => v > 0 && v < 1 ? null : 'z must be in (0, 1)' }
+const ENERGY: VariableSpec = { name: 'sqrtS', label: '√s in GeV', gevPower: 1, check: v => v > 0 && v <= 1e5 ? null : '√s must be a positive number of GeV (at most 100000)' }
 const MASS: VariableSpec = { name: 'm', label: 'mass M in GeV', gevPower: 1, check: v => v > 0 && Number.isFinite(v) ? null : 'the mass M must be a positive number of GeV' }
 
 /** What the caller supplies beyond the spec: α_s for kernels that need it. */
@@ -94,6 +104,10 @@ export interface KernelDefinition {
   sqrtS?: (options: Record<string, unknown>) => number
   /** Prepares the point evaluator once per study (e.g. compiles a user expression). */
   prepare: (options: Record<string, unknown>, context: KernelContext) => PointEvaluator
+  /** What the study's set slots hold (default: parton densities in both). */
+  densities?: KernelDensities
+  /** A building block of composites only: not offered to studies on its own. */
+  partOnly?: true
 }
 
 /** One side of a composite: a kernel with its options, and whether its densities (DIS) or beam 2 (hadronic) come from the second set. */
@@ -113,6 +127,10 @@ export interface CompositeDefinition {
   parts: (options: Record<string, unknown>) => [CompositePart, CompositePart]
   /** Words for what the composite divides by, for the given options (labels and exports). */
   describe?: (options: Record<string, unknown>) => string
+  /** What the study's set slots hold (default: parton densities in both). */
+  densities?: KernelDensities
+  /** The observable's own name when it is not its parts' quantity divided (e.g. "M^h"). */
+  quantity?: string
 }
 
 export type AnyKernelDefinition = KernelDefinition | CompositeDefinition
@@ -214,6 +232,17 @@ const ccRatioOptions = z.strictObject({
   ckm: ckm.optional()
 }).refine(o => (o.observable ?? 'd2sigma') !== 'd2sigma' || o.beamEnergyGeV !== undefined, { message: 'the ν/ν̄ cross-section ratio needs beamEnergyGeV', path: ['beamEnergyGeV'] })
 
+const annihilationOptions = z.strictObject({ exchange: exchange.optional() })
+const sidisOptions = z.strictObject({ target: disTarget.optional() })
+const yieldOptions = sidisOptions.extend({ combination: z.enum(['same', 'conjugate', 'difference']).optional() })
+const SIDIS_VARIABLES: readonly VariableSpec[] = Object.freeze([X, Z_FRACTION, Q2])
+const targetWords = (o: Record<string, unknown>) => {
+  const t = opt(o).target
+  if (!t || t.type === 'proton') return 'a proton target'
+  if (t.type === 'nucleus') return t.z === 1 && t.a === 2 ? 'a deuteron target (per nucleon)' : `a nucleus Z = ${t.z}, A = ${t.a} (per nucleon)`
+  return `a ${t.type} target`
+}
+
 const nuclearBases = ['drell-yan', 'w-plus', 'w-minus', 'z', 'higgs-ggf', 'dis-nc-f2', 'dis-cc-f2', 'dis-cc-xf3', 'dis-cc-d2sigma'] as const
 const nuclearRatioOptions = z.looseObject({
   base: z.enum(nuclearBases),
@@ -249,11 +278,56 @@ const singles: KernelDefinition[] = [
   boson('w-plus', 'W+', false), boson('w-minus', 'W-', false), boson('z', 'Z', false),
   boson('w-plus-total', 'W+', true), boson('w-minus-total', 'W-', true), boson('z-total', 'Z', true),
   higgs('higgs-ggf', false), higgs('higgs-ggf-total', true),
+  {
+    id: 'epem-hadron', title: 'e⁺e⁻ → h X (γ/Z exchange), normalised single-hadron cross-section', composite: false, kind: 'linear',
+    optionsSchema: annihilationOptions, variables: () => [ENERGY, Z_FRACTION], crossSection: false, gevPower: 0,
+    quantity: '(1/σ_tot) dσ^h/dz', densities: ANNIHILATION_SLOTS,
+    prepare: (o, context) => {
+      const scheme = context.scheme
+      if (!scheme) throw new RangeError('the e⁺e⁻ kernel needs the set\'s flavour scheme (which quarks √s can produce): pass it when building the study')
+      return p => annihilationTerm(p.z!, p.sqrtS!, { ...opt(o), scheme })
+    }
+  },
+  {
+    id: 'sidis-yield', title: 'semi-inclusive DIS Σ_q e_q² q(x) D_q^h(z) (numerator of M^h)', composite: false, kind: 'bilinear', partOnly: true,
+    optionsSchema: yieldOptions, variables: () => SIDIS_VARIABLES, crossSection: false, gevPower: 0, quantity: 'Σ e_q² q D_q^h',
+    densities: SEMI_INCLUSIVE_SLOTS,
+    prepare: o => p => semiInclusiveYieldTerm(p.x!, p.z!, p.q2!, opt(o))
+  },
+  {
+    id: 'sidis-quark-sum', title: 'semi-inclusive DIS Σ_q e_q² q(x) (denominator of M^h)', composite: false, kind: 'linear', partOnly: true,
+    optionsSchema: sidisOptions, variables: () => SIDIS_VARIABLES, crossSection: false, gevPower: 0, quantity: 'Σ e_q² q',
+    prepare: o => p => semiInclusiveQuarkSumTerm(p.x!, p.z!, p.q2!, opt(o))
+  },
   luminosity('lumi-gg', 'gg', 'gg'), luminosity('lumi-qqbar', 'qqbar', 'qq̄ (summed over flavours)'), luminosity('lumi-qg', 'qg', 'qg (quarks and antiquarks)'),
   userKernel
 ]
 
 const composites: CompositeDefinition[] = [
+  {
+    id: 'sidis-multiplicity', title: 'semi-inclusive DIS multiplicity M^h', composite: true, op: 'ratio', optionsSchema: sidisOptions,
+    quantity: 'M^h', densities: SEMI_INCLUSIVE_SLOTS,
+    parts: o => [{ kernel: 'sidis-yield', options: { ...o }, useSecond: true }, { kernel: 'sidis-quark-sum', options: { ...o }, useSecond: false }],
+    describe: o => `Σ_q e_q² q(x) D_q^h(z) / Σ_q e_q² q(x) on ${targetWords(o)}; each bin the ratio of the two integrals`
+  },
+  {
+    id: 'sidis-charge-ratio', title: 'semi-inclusive DIS charge ratio M^h/M^h̄', composite: true, op: 'ratio', optionsSchema: sidisOptions,
+    quantity: 'M^h/M^h̄', densities: SEMI_INCLUSIVE_SLOTS,
+    parts: o => [{ kernel: 'sidis-yield', options: { ...o }, useSecond: true }, { kernel: 'sidis-yield', options: { ...o, combination: 'conjugate' }, useSecond: true }],
+    describe: o => `the antihadron h̄ from the same set by charge conjugation, D_q^h̄ = D_q̄^h, on ${targetWords(o)}`
+  },
+  {
+    id: 'sidis-charge-difference', title: 'semi-inclusive DIS charge difference M^h − M^h̄', composite: true, op: 'ratio', optionsSchema: sidisOptions,
+    quantity: 'M^h − M^h̄', densities: SEMI_INCLUSIVE_SLOTS,
+    parts: o => [{ kernel: 'sidis-yield', options: { ...o, combination: 'difference' }, useSecond: true }, { kernel: 'sidis-quark-sum', options: { ...o }, useSecond: false }],
+    describe: o => `Σ_q e_q² q (D_q^h − D_q̄^h) / Σ_q e_q² q, the antihadron by charge conjugation, on ${targetWords(o)}`
+  },
+  {
+    id: 'epem-species-ratio', title: 'e⁺e⁻ → h X species ratio (dσ^h/dz)/(dσ^h′/dz)', composite: true, op: 'ratio', optionsSchema: annihilationOptions,
+    quantity: 'R^{h/h′}', densities: SPECIES_RATIO_SLOTS,
+    parts: o => [{ kernel: 'epem-hadron', options: { ...o }, useSecond: false }, { kernel: 'epem-hadron', options: { ...o }, useSecond: true }],
+    describe: () => 'hadron h of the main set over hadron h′ of the second set (e.g. K⁺ over π⁺)'
+  },
   {
     id: 'w-charge-ratio', title: 'W⁺/W⁻ ratio of dσ/dy', composite: true, op: 'ratio', optionsSchema: wzOptions,
     parts: o => [{ kernel: 'w-plus', options: o, useSecond: false }, { kernel: 'w-minus', options: o, useSecond: false }]
@@ -316,8 +390,10 @@ export function kernelKind(def: KernelDefinition, options: Record<string, unknow
   return typeof def.kind === 'function' ? def.kind(options) : def.kind
 }
 
-/** All kernel ids a study may name, singles first. */
-export const KERNEL_IDS: readonly string[] = Object.freeze([...singles, ...composites].map(k => k.id))
+const offered = [...singles.filter(k => !k.partOnly), ...composites]
+
+/** All kernel ids a study may name, singles first (building blocks of composites excluded). */
+export const KERNEL_IDS: readonly string[] = Object.freeze(offered.map(k => k.id))
 
 const byId = new Map<string, AnyKernelDefinition>([...singles, ...composites].map(k => [k.id, k]))
 
@@ -333,5 +409,14 @@ export function kernelDefinition(id: string): AnyKernelDefinition {
 
 /** Every kernel definition, for catalogues in the app and the CLI help. */
 export function kernelCatalogue(): readonly AnyKernelDefinition[] {
-  return [...singles, ...composites]
+  return offered
+}
+
+/**
+ * What kernel `id` reads in each set slot: parton densities or fragmentation functions, and
+ * whether it needs a second set (shared/physics/README.md, "Hadron production: which set goes where").
+ * @example kernelDensities('sidis-multiplicity') // { main: 'parton', second: 'fragmentation', secondRequired: true }
+ */
+export function kernelDensities(id: string): KernelDensities {
+  return kernelDefinition(id).densities ?? PARTON_SLOTS
 }

@@ -78,14 +78,15 @@ function fmt(v: number): string {
 }
 
 function outsideMessage(what: string, v: number, r: Range, unit: string, where: string): string {
-  const axis = what.startsWith('x') ? 'x' : 'Q²'
+  // The momentum-fraction axis of a fragmentation set is z (its grid's x axis read as z).
+  const axis = what.startsWith('μ') ? 'Q²' : what.startsWith('z') ? 'z' : 'x'
   const side = v < r.lo ? `below the set's smallest ${axis} node ${fmt(r.lo)}${unit}` : `above the set's largest ${axis} node ${fmt(r.hi)}${unit}`
   // In a bin over a range the value is at a quadrature node: the bin as entered says more.
   const ranged = where.includes(' to ')
   return ranged ? `${what}${where} reaches ${side}` : `${what} = ${fmt(v)}${unit}${where} is ${side}`
 }
 
-const NAMES: Record<VariableName, [string, string]> = { x: ['x', ''], q2: ['Q²', ' GeV²'], m: ['M', ' GeV'], y: ['y', ''] }
+const NAMES: Record<VariableName, [string, string]> = { x: ['x', ''], q2: ['Q²', ' GeV²'], m: ['M', ' GeV'], y: ['y', ''], z: ['z', ''], sqrtS: ['√s', ' GeV'] }
 
 /** The bin as the user entered it (points and ranges, never a quadrature node): " (bin as entered: x = 0.01, Q² 1e+04 to 2e+05 GeV²)". */
 function describeBin(row: StudySpec['bins'][number], variables: readonly { name: VariableName }[]): string {
@@ -136,15 +137,25 @@ function narrowing(row: StudySpec['bins'][number], variables: readonly { name: V
   return ''
 }
 
+/** Names of a term's momentum fractions in messages: x, or z for a fragmentation set's side. */
+interface FractionNames { x: string, x1: string, x2: string }
+const DEFAULT_FRACTIONS: FractionNames = { x: 'x', x1: 'x₁', x2: 'x₂' }
+
+/** The fraction names of a kernel with these variables: z for e⁺e⁻ (linear in z), x and z for semi-inclusive DIS. */
+function fractionNames(variables: readonly { name: VariableName }[]): FractionNames {
+  if (!variables.some(v => v.name === 'z')) return DEFAULT_FRACTIONS
+  return variables.some(v => v.name === 'x') ? { x: 'x', x1: 'x', x2: 'z' } : { x: 'z', x1: 'z', x2: 'z' }
+}
+
 /** Checks a term against the grids; returns a message for the first coordinate outside (`where` follows the value). */
-function termReach(term: Term, where: string, r1: ReturnType<typeof axesRange>, r2: ReturnType<typeof axesRange>): string | null {
+function termReach(term: Term, where: string, r1: ReturnType<typeof axesRange>, r2: ReturnType<typeof axesRange>, names: FractionNames = DEFAULT_FRACTIONS): string | null {
   if (term.kind === 'linear') {
-    if (!inside(term.x, r1.x)) return outsideMessage('x', term.x, r1.x, '', where)
+    if (!inside(term.x, r1.x)) return outsideMessage(names.x, term.x, r1.x, '', where)
     if (!inside(term.mu2GeV2, r1.q2)) return outsideMessage('μ_F²', term.mu2GeV2, r1.q2, ' GeV²', where)
     return null
   }
-  if (!inside(term.x1, r1.x)) return outsideMessage('x₁', term.x1, r1.x, '', where)
-  if (!inside(term.x2, r2.x)) return outsideMessage('x₂', term.x2, r2.x, '', where)
+  if (!inside(term.x1, r1.x)) return outsideMessage(names.x1, term.x1, r1.x, '', where)
+  if (!inside(term.x2, r2.x)) return outsideMessage(names.x2, term.x2, r2.x, '', where)
   if (!inside(term.mu2GeV2, r1.q2)) return outsideMessage('μ_F²', term.mu2GeV2, r1.q2, ' GeV²', where)
   if (!inside(term.mu2GeV2, r2.q2)) return outsideMessage('μ_F²', term.mu2GeV2, r2.q2, ' GeV² (beam-2 set)', where)
   return null
@@ -189,12 +200,13 @@ function expandPart(spec: StudySpec, def: KernelDefinition, options: Record<stri
   const r2 = axesRange(a2)
   const evaluate = def.prepare(options, { ...context, renormalisationScaleFactor: spec.renormalisationScaleFactor ?? 1 })
   const variables = def.variables(options)
+  const names = fractionNames(variables)
   const kappa2 = spec.scaleFactor * spec.scaleFactor
   /** Whether a point of a bin evaluates and lies inside the grids (for the narrowing hint). */
   const reachable = (p: Partial<Record<VariableName, number>>) => {
     try {
       const term = evaluate(p)
-      return termReach({ ...term, mu2GeV2: term.mu2GeV2 * kappa2 }, '', r1, r2) === null
+      return termReach({ ...term, mu2GeV2: term.mu2GeV2 * kappa2 }, '', r1, r2, names) === null
     } catch (error) {
       if (error instanceof RangeError) return false
       throw error
@@ -246,7 +258,7 @@ function expandPart(spec: StudySpec, def: KernelDefinition, options: Record<stri
           continue
         }
         term = { ...term, mu2GeV2: term.mu2GeV2 * kappa2 }
-        const why = issues.has(index) ? null : termReach(term, given, r1, r2)
+        const why = issues.has(index) ? null : termReach(term, given, r1, r2, names)
         if (why) issues.set(index, { kind: 'grid', message: `${why}${def.fullRapidityMass ? '' : narrowing(row, variables, p, reachable)}` })
         terms.push(term)
         weights.push(w)
