@@ -5,7 +5,8 @@ import type { Result, Study } from '../../database/schema'
 import { resultUnit, type StudySpec } from '../../../shared/physics/study/spec'
 import { DomainError, fail } from '../errors'
 import { setsOfWorkspace } from '../sets/library'
-import { checkSpec, reachProblems, runSizeProblem, studySizeProblem, type ReachProblem } from './check'
+import { LIMITS } from '../limits'
+import { checkSpec, reachProblems, runSizeProblem, runVariation, studySizeProblem, variationProblem, type ReachProblem } from './check'
 
 /** What the API shows of a study. */
 export const publicStudy = (s: Study) => ({
@@ -56,8 +57,10 @@ export async function validateStudy(db: DB, workspaceId: string, input: StudyInp
   if (tooLarge) throw tooLarge
   const sets = await setsOfWorkspace(db, workspaceId, input.setIds)
   const [second] = input.secondSetId ? await setsOfWorkspace(db, workspaceId, [input.secondSetId], 'secondSetId') : [null]
+  const unvaried = variationProblem(checked.spec, second)
+  if (unvaried) throw unvaried
   for (const s of sets) {
-    const runTooLarge = runSizeProblem(checked.spec, s)
+    const runTooLarge = runSizeProblem(checked.spec, s, LIMITS, runVariation(checked.spec, s, second).rows)
     if (runTooLarge) throw runTooLarge
   }
   const problems: ReachProblem[] = sets.flatMap(s => reachProblems(checked.spec, s, second))
