@@ -61,7 +61,7 @@ export function runStudy(db: DB, resultId: string, o: StudyRunOptions = {}) {
 }
 
 /** What a run needs before evaluating: the spec, both sets in their roles, how they vary, and the plan. */
-interface Prepared {
+export interface Prepared {
   spec: StudySpec
   set: ErrorSet
   roles: ReturnType<typeof pairRoles<ErrorSet>>
@@ -94,18 +94,34 @@ function prepare(db: DB, result: Result, pool: StudyRunOptions['pool']): Promise
       if (tooLarge) throw new RangeError(tooLarge.message)
       const set = await loadErrorSet(db, result.setId)
       const second = result.secondSetId ? await loadErrorSet(db, result.secondSetId) : null
-      const roles = pairRoles(set, second)
-      const variation = runVariation(spec, set, second)
-      const plan = pool !== false && spec.bins.length >= PLAN_ON_POOL_BINS
-        ? await planOnPool(spec, roles.main, roles.second)
-        : sharedDeep(planOf(spec, roles.main, roles.second))
-      return { spec, set, roles, partner: second, variation, plan, members: variation.rows }
+      return prepareRun(spec, set, second, pool)
     })()
     prepared.set(result.id, hit)
     hit.catch(() => prepared.delete(result.id))
     while (prepared.size > 4) prepared.delete(prepared.keys().next().value!)
   }
   return hit
+}
+
+/** A run's roles, variation and plan from its spec and sets (no database: tests and the benchmark call it too). */
+export async function prepareRun(spec: StudySpec, set: ErrorSet, second: ErrorSet | null, pool: StudyRunOptions['pool'] = false): Promise<Prepared> {
+  const roles = pairRoles(set, second)
+  const variation = runVariation(spec, set, second)
+  const plan = pool !== false && spec.bins.length >= PLAN_ON_POOL_BINS
+    ? await planOnPool(spec, roles.main, roles.second)
+    : sharedDeep(planOf(spec, roles.main, roles.second))
+  return { spec, set, roles, partner: second, variation, plan, members: variation.rows }
+}
+
+/**
+ * Every row of a prepared run (inline or on the pool) and its combination, without a database
+ * row: the numbers runStudy stores. For tests and the benchmark.
+ */
+export async function computeRun(p: Prepared, clPercent: number, pool = false): Promise<CombinedRun> {
+  const controller = new AbortController()
+  const watch: CancelWatch = { signal: controller.signal, check: () => {}, readNow: async () => {}, stop: () => {} }
+  const values = await evaluateRange(p, 0, p.members, pool, watch, async () => {})
+  return combineRun(p.spec, p.set, p.partner ? p.roles : null, values, clPercent, { pool, apart: apartOf(p) })
 }
 
 const usePool = (pool: StudyRunOptions['pool'], members: number, plan: Plan) =>
