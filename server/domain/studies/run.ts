@@ -118,10 +118,14 @@ export async function prepareRun(spec: StudySpec, set: ErrorSet, second: ErrorSe
  * row: the numbers runStudy stores. For tests and the benchmark.
  */
 export async function computeRun(p: Prepared, clPercent: number, pool = false): Promise<CombinedRun> {
-  const controller = new AbortController()
-  const watch: CancelWatch = { signal: controller.signal, check: () => {}, readNow: async () => {}, stop: () => {} }
-  const values = await evaluateRange(p, 0, p.members, pool, watch, async () => {})
+  const values = await evaluateRows(p, 0, p.members, pool)
   return combineRun(p.spec, p.set, p.partner ? p.roles : null, values, clPercent, { pool, apart: apartOf(p) })
+}
+
+/** Rows m0…m1 of a prepared run, as a chunk job evaluates them (no database, no cancel flag). */
+export function evaluateRows(p: Prepared, m0: number, m1: number, pool = false): Promise<Float64Array> {
+  const watch: CancelWatch = { signal: new AbortController().signal, check: () => {}, readNow: async () => {}, stop: () => {} }
+  return evaluateRange(p, m0, m1, pool, watch, async () => {})
 }
 
 const usePool = (pool: StudyRunOptions['pool'], members: number, plan: Plan) =>

@@ -5,7 +5,8 @@
 // member k is then c_k times that of the central member, so a ratio of two such sets is a ratio
 // of the constants, whatever the kernel's own numbers are.
 import { describe, expect, it } from 'vitest'
-import { computeRun, prepareRun } from '../../../server/domain/studies/run'
+import { computeRun, evaluateRows, prepareRun } from '../../../server/domain/studies/run'
+import { closePool } from '../../../server/domain/studies/pool'
 import { runVariation, variationProblem } from '../../../server/domain/studies/check'
 import { toyErrorSet, toyQ2Nodes, toyXNodes } from '../../../shared/physics/sets/toy'
 import { buildPlan, evaluatePlan } from '../../../shared/physics/study/plan'
@@ -146,4 +147,34 @@ describe('apart runs', () => {
     expect(varied.members).toBe(5)
     expectClose(varied.bands[0]!.apart!.set.plus, held.bands[0]!.plus, 1e-14)
   })
+})
+
+describe('the chunk and pool paths', () => {
+  const main = toyErrorSet({ kind: 'hessian-pairs', errorMembers: 3, ...grid })
+  const paired = toyErrorSet({ kind: 'hessian-pairs', errorMembers: 3, amplitude: 0.05, ...grid })
+  const apart = { ...toyErrorSet({ kind: 'hessian-pairs', errorMembers: 2, amplitude: 0.05, ...grid }), header: { ...main.header, ...FRAGMENTATION, memberCount: 5 } }
+
+  it.each([['paired', paired, 7], ['apart', apart, 11]] as const)('%s: chunks of rows put together equal the whole run', async (_what, second, rows) => {
+    const p = await prepareRun(spec(), main, second)
+    expect(p.members).toBe(rows)
+    const whole = await evaluateRows(p, 0, rows)
+    // Chunks that cut across the boundary between the two sets' rows (row 7 in the apart run).
+    const cuts = [0, 2, 6, 8, rows].filter(c => c <= rows)
+    const pieces = await Promise.all(cuts.slice(1).map((c, i) => evaluateRows(p, cuts[i]!, c)))
+    expect(Array.from(pieces.flatMap(x => Array.from(x)))).toEqual(Array.from(whole))
+  })
+
+  it.each([['paired', paired], ['apart', apart]] as const)('%s: the pool gives the inline numbers', async (_what, second) => {
+    process.env.SHEAF_EVAL_THREADS = '1'
+    try {
+      const p = await prepareRun(spec(), main, second)
+      const inline = await computeRun(p, 68)
+      const pooled = await computeRun(p, 68, true)
+      expect(Array.from(pooled.values)).toEqual(Array.from(inline.values))
+      expect(pooled.bands).toEqual(inline.bands)
+    } finally {
+      await closePool()
+      delete process.env.SHEAF_EVAL_THREADS
+    }
+  }, 120_000)
 })
