@@ -52,11 +52,11 @@ export async function runTwoSetBench(io: CliIo) {
     kernel: 'nuclear-ratio', options: { base: 'drell-yan', nucleus: { z: 82, a: 208 }, sqrtSGeV: 8160 }, bins: readDemoBins('ppb-drell-yan-rapidity.csv'), ...extra
   })
   const rows: Array<[string, Awaited<ReturnType<typeof timeRun>>]> = [
-    ['C/Pb F₂ ratio, 12 bins: Pb varied, C at its central member', await timeRun(ratio(), lead, carbonApartFamily)],
-    ['C/Pb F₂ ratio, 12 bins: paired (one family)', await timeRun(ratio(), lead, carbon)],
-    ['C/Pb F₂ ratio, 12 bins: varied apart', await timeRun(ratio({ varySecondSet: true }), lead, carbonApartFamily)],
-    ['p Pb / p p Drell–Yan, 10 bins × 8 points: Pb varied, proton at its central member', await timeRun(dy(), lead, proton)],
-    ['p Pb / p p Drell–Yan, 10 bins × 8 points: varied apart', await timeRun(dy({ varySecondSet: true }), lead, proton)]
+    [`C/Pb F₂ ratio, ${ratio().bins.length} bins: Pb varied, C at its central member`, await timeRun(ratio(), lead, carbonApartFamily)],
+    [`C/Pb F₂ ratio, ${ratio().bins.length} bins: paired (one family)`, await timeRun(ratio(), lead, carbon)],
+    [`C/Pb F₂ ratio, ${ratio().bins.length} bins: varied apart`, await timeRun(ratio({ varySecondSet: true }), lead, carbonApartFamily)],
+    [`p Pb / p p Drell–Yan, ${dy().bins.length} bins × ${dy().quadratureOrder} points: Pb varied, proton at its central member`, await timeRun(dy(), lead, proton)],
+    [`p Pb / p p Drell–Yan, ${dy().bins.length} bins × ${dy().quadratureOrder} points: varied apart`, await timeRun(dy({ varySecondSet: true }), lead, proton)]
   ]
   rows.forEach(([what, r], i) => {
     const single = rows[i < 3 ? 0 : 3]![1]
