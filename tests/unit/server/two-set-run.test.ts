@@ -18,7 +18,7 @@ import { expectClose } from '../physics/close'
 const grid = {
   x: toyXNodes(30, 1e-5, 0.95),
   q2: toyQ2Nodes({ q2MinGeV2: 2, q2MaxGeV2: 1e4, count: 12, thresholdsGeV2: [1.5 ** 2, 4.75 ** 2] }),
-  scheme: { type: 'variable' as const, nf: 5, massesGeV: { charm: 1.5, bottom: 4.75, top: 173 } }
+  scheme: { type: 'variable' as const, nf: 5 as const, massesGeV: { charm: 1.5, bottom: 4.75, top: 173 } }
 }
 const base = toyErrorSet({ kind: 'hessian-pairs', errorMembers: 1, ...grid })
 
