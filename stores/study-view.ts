@@ -290,6 +290,8 @@ export interface StudySpecJson {
   kernel: string, options: Record<string, unknown>, bins: SpecBin[]
   quadratureOrder?: number, fullRangeOrder?: number, scaleFactor?: number, rangeMode?: string, title?: string
   kFactors?: StudyKFactors
+  /** Vary the second set too (apart, in quadrature); see Settings.vue. */
+  varySecondSet?: boolean
 }
 
 export interface StudyDetail {
@@ -310,13 +312,39 @@ export interface ResultDetail extends ResultRow {
   /** Which bins `spec.bins`, `bands` and `scaleVariation` hold (0-based offset, count, all bins). */
   bins?: { offset: number, limit: number, total: number }
   reporting: { prescription: string, clPercent: number, available: string[], setConfidenceLevelPercent: number }
-  bands: (BandJson & { prescription: string, clPercent: number, pdf: BandJson, alphas: number[] | null, interval?: IntervalRule }) | null
+  /** The study's second set when this version ran, and how its members varied (absent variation: held at its central member). */
+  second?: { id: string, name: string, version: string, kind: string, family?: string, memberCount?: number, variation?: 'central' | 'paired' | 'apart' } | null
+  bands: (BandJson & {
+    prescription: string, clPercent: number, pdf: BandJson, alphas: number[] | null, interval?: IntervalRule
+    /** An apart run's parts: the result's set alone, the second set alone (its own prescription), and their combination (= the band). */
+    apart?: { set: BandJson & { prescription: string }, second: BandJson & { prescription: string, name: string }, combined: BandJson }
+  }) | null
   /** Central member at μ_F = κ μ for each κ (values[k]), and the envelope about κ = 1: nominal ± up/down; `label` says which scales moved. */
   scaleVariation: { kappas: number[], values: number[][], nominal: number[], up: number[], down: number[], label?: string, variation?: string } | null
   /** The K-factors of the page's bins and their uncertainty δX at the band's CL, apart from the band; null without K-factors. */
   kFactors: { values: number[], errors: number[] | null, source: string | null, addedInQuadrature: boolean, error: number[] | null, combined: BandJson | null } | null
   trail: { reviews: TrailEntry[], events: TrailEntry[] }
   caution: string
+}
+
+/**
+ * The curves a result adds to the band plot: its band, labelled by how a second set entered it
+ * ("correlated: members paired"), and for an apart run also each set's part alone.
+ * @example resultSeries(apartDetail).map(s => s.id) // [setId, `${setId}:set`, `${setId}:second`]
+ */
+export function resultSeries(d: Pick<ResultDetail, 'setId' | 'set' | 'second' | 'bands'>): Array<{ id: string, label: string, band: BandJson }> {
+  if (!d.bands) return []
+  const name = `${d.set.name} ${d.set.version}`
+  const variation = d.second?.variation ?? 'central'
+  const apart = d.bands.apart
+  if (variation === 'apart' && apart) {
+    return [
+      { id: d.setId, label: `${name} ⊕ ${apart.second.name} (in quadrature)`, band: d.bands },
+      { id: `${d.setId}:set`, label: `${name} alone (${apart.second.name} at its central member)`, band: apart.set },
+      { id: `${d.setId}:second`, label: `${apart.second.name} alone (${name} at its central member)`, band: apart.second }
+    ]
+  }
+  return [{ id: d.setId, label: variation === 'paired' ? `${name} (correlated: members paired with ${d.second!.name})` : name, band: d.bands }]
 }
 
 const BIN_KEYS = ['x', 'xMin', 'xMax', 'q2', 'q2Min', 'q2Max', 'y', 'yMin', 'yMax', 'm', 'mMin', 'mMax', 'z', 'zMin', 'zMax', 'sqrtS', 'sqrtSMin', 'sqrtSMax', 'label'] as const

@@ -61,7 +61,7 @@ export async function readFit(file: string): Promise<InputDocument> {
  * Builds demo set `s` with the engine; the set file's bytes. The engine is imported here, not at
  * the top: a seed with nothing to build (every npm start after the first) stays fast.
  */
-async function buildDemoSet(s: { fit: string, baseline?: string, nucleus?: { z: number, a: number }, name: string }, provenance: string) {
+export async function buildDemoSet(s: { fit: string, baseline?: string, nucleus?: { z: number, a: number }, name: string }, provenance: string) {
   const [{ buildErrorSet }, { compileInput }, { writeSetFile }] = await Promise.all([
     import('../../shared/physics/evolution/build-set'), import('../../shared/physics/input/model'), import('../../shared/physics/sets/write')
   ])
@@ -71,7 +71,7 @@ async function buildDemoSet(s: { fit: string, baseline?: string, nucleus?: { z: 
 }
 
 /** Every demo set: the proton fits, then the family's nuclei, each with its set name and version. */
-function demoSetList() {
+export function demoSetList() {
   const meta = (file: string) => JSON.parse(fitText(file)) as { name: string, version: string }
   const family = meta(DEMO_FAMILY.fit)
   return [

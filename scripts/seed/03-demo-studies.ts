@@ -27,7 +27,11 @@ export interface DemoStudy {
   binsFile: string
   spec: Omit<StudySpecInput, 'bins'>
   sets: DemoSetKey[]
-  /** Held at its central member while the study's sets vary (the baseline of a nuclear ratio). */
+  /**
+   * The study's second set (the baseline of a nuclear ratio, the other nucleus of a ratio of two
+   * nuclei): held at its central member, or paired member by member when it comes from the same
+   * family with the same members (shared/physics/uncertainty/two-sets.ts).
+   */
   second?: DemoSetKey
   /** Review steps for the result on the study's first set. */
   review?: Array<{ action: 'submitted' | 'approved', by: Role, comment: string }>
@@ -105,6 +109,14 @@ export const DEMO_STUDIES: DemoStudy[] = [
     spec: { title: 'p Pb / p p Drell–Yan per nucleon, M = 20 GeV, √s = 8.16 TeV', kernel: 'nuclear-ratio', options: { base: 'drell-yan', nucleus: { z: 82, a: 208 }, sqrtSGeV: 8160 } },
     sets: ['lead'],
     second: 'hessian'
+  },
+  {
+    name: 'KNM-12 · Carbon over lead F₂ per nucleon',
+    description: `F₂ of carbon (Z = 6, A = 12) over F₂ of lead per nucleon, the lead taken as an isoscalar nucleon ½(p + n) of its bound densities (carbon is isoscalar itself, so the ratio shows the nuclear modifications alone), at Q² = 10 GeV² from x = 0.003 to 0.6, for an invented Kestrel fixed-target proposal. Both sets come from the invented Ostrand-25 family (one A-dependent fit built for each nucleus), so member k of Ostrand-25-C12 is paired with member k of Ostrand-25-Pb208: the band of the ratio carries the correlation between the two nuclei, and is much narrower than the two sets' bands added in quadrature. ${DEMO_NOTE}`,
+    binsFile: 'carbon-lead-f2-x.csv',
+    spec: { title: 'F₂^C/F₂^Pb per nucleon (Pb isoscalar-corrected), Q² = 10 GeV²', kernel: 'nuclear-ratio', options: { base: 'dis-nc-f2', nucleus: { z: 6, a: 12 }, denominator: 'isoscalar' } },
+    sets: ['lead'],
+    second: 'carbon'
   }
 ]
 

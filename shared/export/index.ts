@@ -1,11 +1,11 @@
 // Result exports: pure formatters (no DOM, no I/O) and the shared caution text.
 
 // Types
-export type { ApprovalState, ExportKFactors, ExportObservable, ExportProvenance, LabelledBand, MatrixForExport, ResultForExport } from './types'
+export type { ApprovalState, ExportKFactors, ExportObservable, ExportProvenance, ExportSecondSet, LabelledBand, MatrixForExport, ResultForExport } from './types'
 // Caution shown with every result
 export { K_FACTOR_CAUTION, K_FACTOR_CAUTION_SHORT, RESULT_CAUTION, RESULT_CAUTION_SHORT, resultCaution, resultCautionShort } from './caution'
 // Provenance
-export { approvalText, confidenceText, kFactorText, provenanceLines, provenanceObject, setText } from './provenance'
+export { approvalText, confidenceText, kFactorText, provenanceLines, provenanceObject, secondSetText, setText } from './provenance'
 // Number rounding for printed tables
 export { decimalExponent, pdgErrorDecimals, roundDecimal, roundMeasurement, roundSignificant } from './numbers'
 export type { RoundedMeasurement, RoundingOptions } from './numbers'

@@ -1,5 +1,6 @@
 import { resultCaution } from './caution'
-import type { ExportKFactors, ExportObservable, ExportProvenance } from './types'
+import { variationText } from '../physics/uncertainty/two-sets'
+import type { ExportKFactors, ExportObservable, ExportProvenance, ExportSecondSet } from './types'
 
 export const isoTime = (t: string | Date) => (typeof t === 'string' ? t : t.toISOString())
 
@@ -35,6 +36,15 @@ export function kFactorText(k: ExportKFactors): string {
 }
 
 /**
+ * The provenance line of a second set: which set and how its members entered the bands, e.g.
+ * "Ostrand-25-C12 version 1 (hessian-pairs, family Ostrand-25); correlated: members paired".
+ */
+export function secondSetText(s: ExportSecondSet): string {
+  const own = s.variation === 'apart' && s.prescription ? `; its own band: ${s.prescription}, at the same CL` : ''
+  return `${s.name} version ${s.version} (${s.kind}${s.family ? `, family ${s.family}` : ''}); ${variationText(s.variation)}${own}`
+}
+
+/**
  * The provenance as "key: value" lines, the same in every format (CSV `#` comments, LaTeX `%`
  * comments), ending with the caution.
  */
@@ -44,6 +54,7 @@ export function provenanceLines(p: ExportProvenance, observable: ExportObservabl
     ...(p.study ? [`study: ${p.study.name}${p.study.id ? ` (${p.study.id})` : ''}`] : []),
     `observable: ${observable.name}${observable.unit ? ` [${observable.unit}]` : ''}`,
     `set: ${setText(p)}`,
+    ...(p.secondSet ? [`second set: ${secondSetText(p.secondSet)}`] : []),
     `prescription: ${p.prescription}; ${confidenceText(p)}`,
     `kernel: ${p.kernel.id}${p.kernel.label ? ` (${p.kernel.label})` : ''}; constants: ${constantsText(p.kernel.constants)}`,
     ...(p.kFactors ? [`K-factors: ${kFactorText(p.kFactors)}`] : []),
@@ -62,6 +73,7 @@ export function provenanceObject(p: ExportProvenance) {
     ranAt: isoTime(p.ranAt),
     approval: { ...p.approval, ...(p.approval.at ? { at: isoTime(p.approval.at) } : {}) },
     ...(p.exportedAt ? { exportedAt: isoTime(p.exportedAt) } : {}),
-    confidence: confidenceText(p)
+    confidence: confidenceText(p),
+    ...(p.secondSet ? { secondSet: { ...p.secondSet, text: secondSetText(p.secondSet) } } : {})
   }
 }

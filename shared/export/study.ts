@@ -7,7 +7,8 @@ import type { BandView } from '../physics/uncertainty/band'
 import { bandsCsvRecords, bandsJsonBody, checkResult, csvColumnNotes } from './bands'
 import { resultCaution } from './caution'
 import { latexTable, latexText, type LatexTableOptions } from './latex'
-import { approvalText, confidenceText, isoTime, kFactorText, provenanceObject, setText } from './provenance'
+import { variationText } from '../physics/uncertainty/two-sets'
+import { approvalText, confidenceText, isoTime, kFactorText, provenanceObject, secondSetText, setText } from './provenance'
 import type { ExportObservable, ExportProvenance, ResultForExport } from './types'
 
 /** A study's newest finished result on each of its sets, all on the same bins. */
@@ -23,7 +24,7 @@ export interface StudyForExport {
 }
 
 const setLine = (p: ExportProvenance) =>
-  `${setText(p)}; ${p.prescription}; ${confidenceText(p)}; result version ${p.resultVersion}, ${approvalText(p)}; run by ${p.ranBy} at ${isoTime(p.ranAt)}; engine ${p.engineVersion}${p.kFactors ? `; K-factors: ${kFactorText(p.kFactors)}` : ''}`
+  `${setText(p)}; ${p.prescription}; ${confidenceText(p)}; result version ${p.resultVersion}, ${approvalText(p)}; run by ${p.ranBy} at ${isoTime(p.ranAt)}; engine ${p.engineVersion}${p.kFactors ? `; K-factors: ${kFactorText(p.kFactors)}` : ''}${p.secondSet ? `; second set: ${secondSetText(p.secondSet)}` : ''}`
 
 /** Whether any set's result was scaled by K-factors. */
 const withKFactors = (s: StudyForExport) => s.sets.some(x => x.provenance.kFactors)
@@ -33,7 +34,7 @@ function asTable(s: StudyForExport): Omit<ResultForExport, 'provenance'> {
   if (!s.sets.length) throw new RangeError('A study export needs at least one finished result')
   const table = {
     observable: s.observable, binColumns: s.binColumns, bins: s.bins,
-    bands: s.sets.map(x => ({ id: x.id, label: `${x.provenance.set.name} ${x.provenance.set.version}, ${x.provenance.prescription}`, band: x.band }))
+    bands: s.sets.map(x => ({ id: x.id, label: `${x.provenance.set.name} ${x.provenance.set.version}, ${x.provenance.prescription}${x.provenance.secondSet && x.provenance.secondSet.variation !== 'central' ? ` (${variationText(x.provenance.secondSet.variation)})` : ''}`, band: x.band }))
   }
   checkResult({ ...table, provenance: s.sets[0]!.provenance })
   return table

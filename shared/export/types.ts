@@ -29,6 +29,20 @@ export interface ExportProvenance {
   exportedAt?: string | Date
   /** Present when the study's members were multiplied by per-bin K-factors before the bands. */
   kFactors?: ExportKFactors
+  /** The study's second set and how it varied (shared/physics/uncertainty/two-sets.ts); absent with one set. */
+  secondSet?: ExportSecondSet
+}
+
+/** The second set of a two-set result and how its members entered the bands. */
+export interface ExportSecondSet {
+  name: string
+  version: string
+  kind: string
+  family?: string
+  /** 'central' (held at its central member), 'paired' (member k with member k) or 'apart' (varied on its own, combined in quadrature). */
+  variation: 'central' | 'paired' | 'apart'
+  /** The second set's own prescription in an apart run, as a reader should see it. */
+  prescription?: string
 }
 
 /** Which K-factors a result used (the per-bin values are columns of the bins). */

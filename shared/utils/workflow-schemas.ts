@@ -117,7 +117,9 @@ export const densitiesQuerySchema = z.object({
   spacing: z.enum(['log', 'linear'], { error: 'spacing is log or linear' }).default('log'),
   prescription: prescriptionChoice.optional(),
   cl: bandsQuerySchema.shape.cl,
-  ratioTo: z.uuid({ error: 'ratioTo is the id of another set' }).optional()
+  ratioTo: z.uuid({ error: 'ratioTo is the id of another set' }).optional(),
+  /** One x instead of the log-spaced points (a family's R at fixed x against A). */
+  x: z.coerce.number({ error: 'x is a number' }).positive('x must be positive').lt(1, 'x must be below 1').optional()
 })
 
 export const sumRulesQuerySchema = z.object({

@@ -2,6 +2,7 @@
 // worker computes the first bands with these, the server the others.
 import type { StoredBands } from '../../database/schema'
 import { bandToJson } from '../../../shared/physics/uncertainty/band'
+import { combineApart } from '../../../shared/physics/uncertainty/two-sets'
 import {
   computeBands, isPrescription, prescriptionsFor, type BandResult, type MemberValues,
   type Prescription
@@ -58,4 +59,28 @@ export function storedBands(r: BandResult): StoredBands {
 /** The member source of a set header as stored in error_sets.header. */
 export function memberSourceOf(header: { kind: SetKind, confidenceLevelPercent: number, alphasMembers?: [number, number] }): MemberSource {
   return { kind: header.kind, confidenceLevelPercent: header.confidenceLevelPercent, alphasMembers: header.alphasMembers }
+}
+
+/**
+ * One prescription's bands of an apart run (shared/physics/uncertainty/two-sets.ts): the result's
+ * set's part with `prescription`, the second set's part with the same prescription when it fits
+ * its kind (else its kind's default) and its own CL rescaled to `clPercent`, and their
+ * combination in quadrature as the top-level band; the parts are kept under `apart`. `pdf` and
+ * `alphas` stay those of the result's set.
+ */
+export function apartStoredBands(parts: { main: MemberValues, second: MemberValues },
+  sources: { set: MemberSource, second: MemberSource & { name: string, version: string } }, prescription: Prescription, clPercent: number): StoredBands {
+  const set = bandsFromValues(parts.main, sources.set, prescription, clPercent)
+  const secondPrescription = resolvePrescription(sources.second.kind, prescription)
+  const second = bandsFromValues(parts.second, memberSourceOf(sources.second), secondPrescription, clPercent)
+  const combined = bandToJson(combineApart(set, second))
+  return {
+    ...storedBands(set),
+    ...combined,
+    apart: {
+      set: { ...bandToJson(set), prescription, interval: set.interval },
+      second: { ...bandToJson(second), prescription: secondPrescription, interval: second.interval, name: `${sources.second.name} ${sources.second.version}` },
+      combined
+    }
+  }
 }

@@ -3,7 +3,8 @@ import type { DB } from '../../database/client'
 import { tables as t } from '../../database/client'
 import type { Result, ScaleVariationJson, StoredBands, Study } from '../../database/schema'
 import type { BinColumn as GridColumn, BinRow as GridRow } from '../../../shared/bins/types'
-import type { ExportObservable, ExportProvenance, LabelledBand, ResultForExport } from '../../../shared/export/types'
+import type { ExportObservable, ExportProvenance, ExportSecondSet, LabelledBand, ResultForExport } from '../../../shared/export/types'
+import { variationText } from '../../../shared/physics/uncertainty/two-sets'
 import { bandToJson, makeBands } from '../../../shared/physics/uncertainty/band'
 import * as C from '../../../shared/physics/constants'
 import { kernelDefinition } from '../../../shared/physics/kernels/registry'
@@ -15,7 +16,8 @@ import { studyObservable } from '../../../shared/bins/observable'
 import type { StudyForExport } from '../../../shared/export/study'
 import { fail } from '../errors'
 import { latestDoneResults } from '../studies/studies'
-import { reportingChoice, resultBands, resultSetHeader, userNames } from './results'
+import { resolvePrescription } from './bands'
+import { apartSecondHeader, reportingChoice, resultBands, resultSetHeader, userNames } from './results'
 import { exportKFactors, kFactorExportBands, kFactorView } from './k-factors'
 
 const COLUMN_LABELS: Record<string, { label: string, unit?: string }> = {
@@ -98,8 +100,36 @@ export async function exportProvenance(db: DB, r: Result, study: Study, header: 
       : { state: r.reviewState },
     exportedBy,
     exportedAt: new Date(),
-    ...(spec.kFactors ? { kFactors: exportKFactors(spec) } : {})
+    ...(spec.kFactors ? { kFactors: exportKFactors(spec) } : {}),
+    ...(snap.second ? { secondSet: await exportSecondSet(db, r, prescription) } : {})
   }
+}
+
+/** The second set of a result as the exports describe it (name, variation, and an apart run's own prescription). */
+async function exportSecondSet(db: DB, r: Result, prescription: Prescription): Promise<ExportSecondSet> {
+  const second = r.specSnapshot.second!
+  const variation = second.variation ?? 'central'
+  const header = variation === 'apart' ? await apartSecondHeader(db, r) : null
+  return {
+    name: second.name, version: second.version, kind: second.kind, ...(second.family ? { family: second.family } : {}), variation,
+    ...(header ? { prescription: PRESCRIPTION_LABELS[resolvePrescription(header.kind, prescription)] } : {})
+  }
+}
+
+/**
+ * The bands of a two-set result as exported: a paired run's band says it is correlated; an apart
+ * run gives the combination first, then each set's part (two-sets.ts).
+ */
+function twoSetBands(provenance: ExportProvenance, prescription: Prescription, bands: StoredBands, pdfLabel: string): LabelledBand[] {
+  const second = provenance.secondSet
+  if (!second || second.variation === 'central') return [{ id: prescription, label: pdfLabel, band: bands }]
+  if (second.variation === 'paired' || !bands.apart) return [{ id: prescription, label: `${pdfLabel} (${variationText(second.variation)})`, band: bands }]
+  const { set, second: part } = bands.apart
+  return [
+    { id: prescription, label: `${pdfLabel}, ${provenance.set.name} ⊕ ${part.name} (${variationText('apart')})`, band: bands },
+    { id: `${prescription}-set`, label: `${provenance.set.name} alone (${PRESCRIPTION_LABELS[set.prescription]}; ${part.name} at its central member)`, band: set },
+    { id: `${part.prescription}-second`, label: `${part.name} alone (${PRESCRIPTION_LABELS[part.prescription]}; ${provenance.set.name} at its central member)`, band: part }
+  ]
 }
 
 /**
@@ -111,7 +141,7 @@ export function resultForExport(
   scale: ScaleVariationJson | null
 ): ResultForExport {
   const pdfLabel = `PDF, ${PRESCRIPTION_LABELS[prescription]}`
-  const exportBands: LabelledBand[] = [{ id: prescription, label: pdfLabel, band: bands }]
+  const exportBands: LabelledBand[] = twoSetBands(provenance, prescription, bands, pdfLabel)
   exportBands.push(...kFactorExportBands(kFactorView(spec, bands, bands.clPercent), bands, pdfLabel))
   if (scale) {
     const [lo, mid, hi] = scale.kappas

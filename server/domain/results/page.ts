@@ -33,7 +33,11 @@ const bandPage = (b: BandJson, p: BinPage): BandJson => ({
 
 /** A result's bands on the bins of page `p`. */
 export function bandsPage(bands: StoredBands, p: BinPage): StoredBands {
-  return { ...bands, ...bandPage(bands, p), pdf: bandPage(bands.pdf, p), alphas: bands.alphas ? slice(bands.alphas, p) : null }
+  const apart = bands.apart
+  return {
+    ...bands, ...bandPage(bands, p), pdf: bandPage(bands.pdf, p), alphas: bands.alphas ? slice(bands.alphas, p) : null,
+    ...(apart ? { apart: { set: { ...apart.set, ...bandPage(apart.set, p) }, second: { ...apart.second, ...bandPage(apart.second, p) }, combined: bandPage(apart.combined, p) } } : {})
+  }
 }
 
 /** A scale variation on the bins of page `p`. */

@@ -5,15 +5,32 @@ import type { Result, StoredBands } from '../../database/schema'
 import type { SetHeader } from '../../../shared/physics/types'
 import { binCovariance, correlationFromCovariance, type MemberValues, type Prescription, type SquareMatrix } from '../../../shared/physics/uncertainty'
 import { fail } from '../errors'
-import { bandsFromValues, memberSourceOf, resolvePrescription, storedBands } from './bands'
+import { apartCovariance, splitApart } from '../../../shared/physics/uncertainty/two-sets'
+import { apartStoredBands, bandsFromValues, memberSourceOf, resolvePrescription, storedBands, type MemberSource } from './bands'
 import { bytesToFloat64 } from './float64'
 
-/** The stored member values of a finished result, and its scale variations (if any). */
+/**
+ * The stored member values of a finished result, and its scale variations (if any). `matrix` is
+ * always the result's set's members (what every prescription, matrix and comparison reads); an
+ * apart run's second-set part (its members with the result's set at its central member, central
+ * first) is `second`, null otherwise.
+ */
 export async function loadResultValues(db: DB, resultId: string) {
-  const [row] = await db.select().from(t.resultValues).where(eq(t.resultValues.resultId, resultId))
+  const [row] = await db.select({ values: t.resultValues, snapshot: t.results.specSnapshot }).from(t.resultValues)
+    .innerJoin(t.results, eq(t.results.id, t.resultValues.resultId)).where(eq(t.resultValues.resultId, resultId))
   if (!row) fail(409, 'This result has no stored values yet; wait until it has finished')
-  const matrix: MemberValues = { members: row.memberCount, bins: row.binCount, values: bytesToFloat64(row.values) }
-  return { matrix, scale: row.scale }
+  const stored: MemberValues = { members: row.values.memberCount, bins: row.values.binCount, values: bytesToFloat64(row.values.values) }
+  const second = row.snapshot.second
+  if (second?.variation !== 'apart' || !second.memberCount) return { matrix: stored, second: null, scale: row.values.scale }
+  const parts = splitApart(stored, row.snapshot.set.memberCount, second.memberCount)
+  return { matrix: parts.main, second: parts.second, scale: row.values.scale }
+}
+
+/** The header of an apart result's second set, or null for any other result. */
+export async function apartSecondHeader(db: DB, r: Result): Promise<SetHeader | null> {
+  if (r.specSnapshot.second?.variation !== 'apart' || !r.secondSetId) return null
+  const [row] = await db.select({ header: t.errorSets.header }).from(t.errorSets).where(eq(t.errorSets.id, r.secondSetId))
+  return row?.header ?? null
 }
 
 /** The scale variation of a finished result alone (not its member values). */
@@ -52,8 +69,11 @@ export async function resultBands(db: DB, r: Result, header: SetHeader, prescrip
   const [cached] = await db.select({ bands: t.resultBands.bands }).from(t.resultBands)
     .where(and(eq(t.resultBands.resultId, r.id), eq(t.resultBands.prescription, prescription), eq(t.resultBands.clPercent, clPercent)))
   if (cached) return cached.bands
-  const { matrix } = await loadResultValues(db, r.id)
-  const bands = storedBands(bandsFromValues(matrix, memberSourceOf(header), prescription, clPercent))
+  const { matrix, second } = await loadResultValues(db, r.id)
+  const secondHeader = second ? await apartSecondHeader(db, r) : null
+  const bands = second && secondHeader
+    ? apartStoredBands({ main: matrix, second }, { set: memberSourceOf(header), second: secondHeader }, prescription, clPercent)
+    : storedBands(bandsFromValues(matrix, memberSourceOf(header), prescription, clPercent))
   await db.insert(t.resultBands).values({ resultId: r.id, prescription, clPercent, bands }).onConflictDoNothing()
   return bands
 }
@@ -63,12 +83,19 @@ export const MATRIX_MAX_BINS = Number(process.env.SHEAF_MATRIX_MAX_BINS ?? 2000)
 
 /** Bin-to-bin covariance (at `clPercent`) and correlation of a finished result. */
 export async function resultMatrices(db: DB, r: Result, header: SetHeader, clPercent: number) {
-  const { matrix } = await loadResultValues(db, r.id)
+  const { matrix, second } = await loadResultValues(db, r.id)
   if (matrix.bins > MATRIX_MAX_BINS) {
     fail(413, `The bin-to-bin matrices are offered up to ${MATRIX_MAX_BINS} bins; this result has ${matrix.bins}. Export the member values (JSON) and build the matrix offline, or split the study`)
   }
+  const options = (s: MemberSource) => ({ kind: s.kind, clFrom: s.confidenceLevelPercent, clTo: clPercent, alphasMembers: s.alphasMembers })
   const source = memberSourceOf(header)
-  const covariance = binCovariance(matrix, { kind: source.kind, clFrom: source.confidenceLevelPercent, clTo: clPercent, alphasMembers: source.alphasMembers })
+  const secondHeader = second ? await apartSecondHeader(db, r) : null
+  if (second && secondHeader) {
+    // Apart: the two sets vary independently, so their covariances add (two-sets.ts).
+    const c = apartCovariance({ main: matrix, second }, { main: options(source), second: options(memberSourceOf(secondHeader)) })
+    return { covariance: c.total, correlation: c.correlation }
+  }
+  const covariance = binCovariance(matrix, options(source))
   const correlation = correlationFromCovariance(covariance)
   return { covariance, correlation }
 }

@@ -107,6 +107,11 @@ export async function setsOfWorkspace(db: DB, workspaceId: string, ids: readonly
   return ids.map(id => byId.get(id)!)
 }
 
+/** 422 unless `x` lies within [lo, hi], the x nodes of the set(s) asked about. */
+export function assertXInside(x: number, lo: number, hi: number) {
+  if (x < lo || x > hi) fail(422, `x = ${x} is outside the grid (${lo} to ${hi})`, { fields: { x: 'outside the grid' } })
+}
+
 /** 422 unless `q2` (GeV²) lies within [lo, hi], the Q² nodes of the set(s) asked about. */
 export function assertQ2Inside(q2: number, lo: number, hi: number) {
   if (q2 < lo || q2 > hi) {

@@ -9,6 +9,7 @@ import { buildUserKernel, type UserKernelOptions } from '../../../shared/physics
 import { checkReach, type StudyAxes } from '../../../shared/physics/study/expand'
 import { checkStudySpec, type StudyIssue, type StudySpec } from '../../../shared/physics/study/spec'
 import type { SetHeader } from '../../../shared/physics/types'
+import { twoSetVariation, type TwoSetVariation } from '../../../shared/physics/uncertainty/two-sets'
 import { observableIssues } from '../../../shared/bins/observable'
 import { DomainError } from '../errors'
 import { formatCount, LIMITS, type Limits } from '../limits'
@@ -37,19 +38,53 @@ export const axesOf = (s: SetForCheck): StudyAxes['main'] => ({
 
 /**
  * Which of two sets is the engine's main set and which its second (beam 2 of a p–A collision,
- * the nuclear set of a nuclear ratio): the one with a nucleus target is the second, unless the
- * partner holds fragmentation functions. `varying` is
- * the set whose members a result evaluates, `partner` the study's second set, held at its central
- * member. Without a partner the varying set is the main one.
+ * the nuclear set of a nuclear ratio, the fragmentation set of a hadron study): the one with a
+ * nucleus target, or holding fragmentation functions, is the second. `varying` is the set whose
+ * members a result evaluates (the result's set), `partner` the study's second set. Without a
+ * partner the varying set is the main one. How the partner's members vary is runVariation's.
  */
 export function pairRoles<T extends { header: SetHeader }>(varying: T, partner: T | null | undefined) {
   if (!partner) return { main: varying, second: null, varyingRole: 'main' as const }
-  const nuclear = (s: T) => s.header.target?.type === 'nucleus'
-  // A fragmentation set is always the second set of a semi-inclusive study (the slot check put it
-  // there), so a nuclear parton set beside it stays the main one.
-  return nuclear(varying) && !nuclear(partner) && !isFragmentation(partner.header)
+  const nuclear = (s: T) => s.header.target?.type === 'nucleus' || isFragmentation(s.header)
+  return nuclear(varying) && !nuclear(partner)
     ? { main: partner, second: varying, varyingRole: 'second' as const }
     : { main: varying, second: partner, varyingRole: 'main' as const }
+}
+
+/** How a result varies its two sets, and how many member rows its run evaluates and stores. */
+export interface RunVariation {
+  variation: TwoSetVariation
+  /**
+   * Rows of the run: the result's set's members ('central', 'paired'), or those plus the
+   * partner's members other than its central one ('apart'; uncertainty/two-sets.ts splitApart).
+   */
+  rows: number
+  /** Members of the result's set and of the partner (0 without one). */
+  setMembers: number
+  partnerMembers: number
+}
+
+/**
+ * The variation of a result on `set` with the study's second set `partner` (twoSetVariation:
+ * paired for one family's sets of the same layout, apart for fragmentation or when the study
+ * asks `varySecondSet`, else the partner at its central member) and its row count.
+ * @example runVariation({ varySecondSet: true }, proton, lead).rows // proton members + lead members − 1
+ */
+export function runVariation(spec: Pick<StudySpec, 'varySecondSet'>, set: { header: SetHeader }, partner: { header: SetHeader } | null | undefined): RunVariation {
+  const variation = twoSetVariation(set.header, partner?.header ?? null, spec.varySecondSet === true)
+  const setMembers = set.header.memberCount
+  const partnerMembers = partner?.header.memberCount ?? 0
+  return { variation, rows: variation === 'apart' ? setMembers + partnerMembers - 1 : setMembers, setMembers, partnerMembers }
+}
+
+/**
+ * 400 located at `varySecondSet` when the study asks to vary a second set it does not have.
+ * (With a second set every combination is valid: one family's sets are paired anyway.)
+ */
+export function variationProblem(spec: Pick<StudySpec, 'varySecondSet'>, partner: unknown): DomainError | null {
+  if (!spec.varySecondSet || partner) return null
+  const message = 'varySecondSet: the study has no second set to vary; choose a second set (secondSetId) or leave varySecondSet out'
+  return new DomainError(400, message, { issues: [{ message, path: ['varySecondSet'], column: 'varySecondSet' }], fields: { varySecondSet: 'no second set to vary' } })
 }
 
 /** What the kernels need from the set beyond its grid: the one-loop α_s of its header and its flavour scheme. */
@@ -153,11 +188,15 @@ export function studySizeProblem(spec: StudySpec, limits: Limits = LIMITS): Doma
   return null
 }
 
-/** 413 when running `members` members on the study's bins exceeds `limits.runMaxValues`, else null. */
-export function runSizeProblem(spec: StudySpec, set: { name: string, version: string, memberCount: number }, limits: Limits = LIMITS): DomainError | null {
-  const values = set.memberCount * spec.bins.length
+/**
+ * 413 when running `members` members on the study's bins exceeds `limits.runMaxValues`, else null.
+ * `rows` counts an apart run's members of both sets (runVariation); default the set's members.
+ */
+export function runSizeProblem(spec: StudySpec, set: { name: string, version: string, memberCount: number }, limits: Limits = LIMITS, rows = set.memberCount): DomainError | null {
+  const values = rows * spec.bins.length
   if (values <= limits.runMaxValues) return null
-  return new DomainError(413, `${set.name} ${set.version} has ${formatCount(set.memberCount)} members; on ${formatCount(spec.bins.length)} bins a run would hold ${formatCount(values)} values, and a run may hold at most ${formatCount(limits.runMaxValues)} (members × bins). Use fewer bins or a set with fewer members`, {
+  const both = rows === set.memberCount ? '' : ` (${formatCount(rows)} with the second set's members, varied apart)`
+  return new DomainError(413, `${set.name} ${set.version} has ${formatCount(set.memberCount)} members${both}; on ${formatCount(spec.bins.length)} bins a run would hold ${formatCount(values)} values, and a run may hold at most ${formatCount(limits.runMaxValues)} (members × bins). Use fewer bins or a set with fewer members`, {
     issues: [{ message: `members × bins at most ${formatCount(limits.runMaxValues)}`, path: ['setIds'] }], maxValues: limits.runMaxValues, values
   })
 }

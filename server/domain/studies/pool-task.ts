@@ -20,6 +20,8 @@ export interface MembersTask {
   members: Float64Array[]
   /** The other set's central member when the plan reads two sets. */
   fixed: Float64Array | null
+  /** A paired run: the other set's members m0…m1 (member k with member k); replaces `fixed`. */
+  partner?: Float64Array[] | null
   varying: 'main' | 'second'
   out: Float64Array
   m0: number
@@ -71,9 +73,10 @@ export function runMembers(t: Omit<MembersTask, 'op'>): number {
   const memberAlphas = t.alphas && t.plan.alphas
     ? memberAlphasFunctions(t.alphas.header).slice(t.alphas.first, t.alphas.first + t.members.length)
     : undefined
+  const others = t.partner ?? (t.fixed ? [t.fixed] : undefined)
   const values = t.varying === 'main'
-    ? evaluatePlan(t.plan, t.members, t.fixed ? [t.fixed] : undefined, memberAlphas ? { memberAlphas } : {})
-    : evaluatePlan(t.plan, t.fixed ? [t.fixed] : [], t.members)
+    ? evaluatePlan(t.plan, t.members, others, memberAlphas ? { memberAlphas } : {})
+    : evaluatePlan(t.plan, others ?? [], t.members)
   t.out.set(values, t.m0 * t.plan.nBins)
   return t.members.length
 }

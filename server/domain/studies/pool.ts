@@ -142,6 +142,8 @@ export interface PoolEvaluation {
   members: Float64Array[]
   m0?: number
   fixed: Float64Array | null
+  /** A paired run: the other set's members (shared, same count as `members`), member k with member k. */
+  partner?: Float64Array[] | null
   varying: 'main' | 'second'
   /** Per-member α_s of the varying main set (first = the set index of members[0]). */
   alphas?: MemberAlphas | null
@@ -164,8 +166,9 @@ export async function evaluateOnPool(e: PoolEvaluation): Promise<Float64Array> {
   const tasks: Promise<unknown>[] = []
   for (let k = 0; k < e.members.length; k += e.step) {
     const members = e.members.slice(k, k + e.step)
+    const partner = e.partner ? e.partner.slice(k, k + e.step) : null
     const alphas = e.alphas ? { header: e.alphas.header, first: e.alphas.first + k } : null
-    const task: MembersTask = { op: 'members', plan: e.plan, members, fixed: e.fixed, varying: e.varying, out: values, m0: k, alphas }
+    const task: MembersTask = { op: 'members', plan: e.plan, members, fixed: e.fixed, partner, varying: e.varying, out: values, m0: k, alphas }
     tasks.push(p.run(task, e.signal ? { signal: e.signal } : {}).then(async (n) => {
       done += n as number
       await e.onTaskDone?.(done)

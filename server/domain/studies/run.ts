@@ -17,18 +17,19 @@ import type { Result, ScaleVariationJson, StoredBands } from '../../database/sch
 import type { Plan } from '../../../shared/physics/study/plan'
 import { parseStudySpec, type StudySpec } from '../../../shared/physics/study/spec'
 import { applyKFactors, applyKFactorsToRows } from '../../../shared/physics/impact/k-factors'
-import type { ErrorSet } from '../../../shared/physics/types'
+import type { ErrorSet, SetHeader } from '../../../shared/physics/types'
+import { splitApart } from '../../../shared/physics/uncertainty/two-sets'
 import type { MemberValues } from '../../../shared/physics/uncertainty'
 import { prescriptionsFor } from '../../../shared/physics/uncertainty/bands'
 import { ENGINE_VERSION } from '../../../shared/physics/version'
 import type { JobPhase, JobProgress } from '../../../shared/queue/workflow'
 import { type CancelWatch, isCancel, JobCancelled, ONLY_ATTEMPT, runQueuedWork, watchCancel } from '../jobs/lifecycle'
 import { notifyRunEnded } from '../mail/job-ended'
-import { storedBands, bandsFromValues, memberSourceOf } from '../results/bands'
+import { apartStoredBands, storedBands, bandsFromValues, memberSourceOf } from '../results/bands'
 import { float64ToBytes } from '../results/float64'
 import type { RunOptions } from '../sets/build'
 import { loadErrorSet } from '../sets/store'
-import { pairRoles, runSizeProblem, studySizeProblem } from './check'
+import { pairRoles, runSizeProblem, runVariation, studySizeProblem, type RunVariation } from './check'
 import { bandsOnPool, evaluateOnPool, planOnPool, poolThreads, scaleOnPool, shared, sharedDeep, sharedMembers } from './pool'
 import { type MemberAlphas, planOf, runMembers } from './pool-task'
 import { scaleVariationOf } from './scale'
@@ -59,13 +60,17 @@ export function runStudy(db: DB, resultId: string, o: StudyRunOptions = {}) {
   })
 }
 
-/** What a run needs before evaluating: the spec, both sets in their roles, and the plan. */
-interface Prepared {
+/** What a run needs before evaluating: the spec, both sets in their roles, how they vary, and the plan. */
+export interface Prepared {
   spec: StudySpec
   set: ErrorSet
   roles: ReturnType<typeof pairRoles<ErrorSet>>
+  /** The study's second set (the result's set's partner), or null. */
+  partner: ErrorSet | null
+  variation: RunVariation
   /** The plan in shared memory (the pool reads it where it is). */
   plan: Plan
+  /** Member rows of the run (variation.rows). */
   members: number
 }
 
@@ -89,17 +94,38 @@ function prepare(db: DB, result: Result, pool: StudyRunOptions['pool']): Promise
       if (tooLarge) throw new RangeError(tooLarge.message)
       const set = await loadErrorSet(db, result.setId)
       const second = result.secondSetId ? await loadErrorSet(db, result.secondSetId) : null
-      const roles = pairRoles(set, second)
-      const plan = pool !== false && spec.bins.length >= PLAN_ON_POOL_BINS
-        ? await planOnPool(spec, roles.main, roles.second)
-        : sharedDeep(planOf(spec, roles.main, roles.second))
-      return { spec, set, roles, plan, members: set.members.length }
+      return prepareRun(spec, set, second, pool)
     })()
     prepared.set(result.id, hit)
     hit.catch(() => prepared.delete(result.id))
     while (prepared.size > 4) prepared.delete(prepared.keys().next().value!)
   }
   return hit
+}
+
+/** A run's roles, variation and plan from its spec and sets (no database: tests and the benchmark call it too). */
+export async function prepareRun(spec: StudySpec, set: ErrorSet, second: ErrorSet | null, pool: StudyRunOptions['pool'] = false): Promise<Prepared> {
+  const roles = pairRoles(set, second)
+  const variation = runVariation(spec, set, second)
+  const plan = pool !== false && spec.bins.length >= PLAN_ON_POOL_BINS
+    ? await planOnPool(spec, roles.main, roles.second)
+    : sharedDeep(planOf(spec, roles.main, roles.second))
+  return { spec, set, roles, partner: second, variation, plan, members: variation.rows }
+}
+
+/**
+ * Every row of a prepared run (inline or on the pool) and its combination, without a database
+ * row: the numbers runStudy stores. For tests and the benchmark.
+ */
+export async function computeRun(p: Prepared, clPercent: number, pool = false): Promise<CombinedRun> {
+  const values = await evaluateRows(p, 0, p.members, pool)
+  return combineRun(p.spec, p.set, p.partner ? p.roles : null, values, clPercent, { pool, apart: apartOf(p) })
+}
+
+/** Rows m0…m1 of a prepared run, as a chunk job evaluates them (no database, no cancel flag). */
+export function evaluateRows(p: Prepared, m0: number, m1: number, pool = false): Promise<Float64Array> {
+  const watch: CancelWatch = { signal: new AbortController().signal, check: () => {}, readNow: async () => {}, stop: () => {} }
+  return evaluateRange(p, m0, m1, pool, watch, async () => {})
 }
 
 const usePool = (pool: StudyRunOptions['pool'], members: number, plan: Plan) =>
@@ -123,7 +149,7 @@ async function compute(db: DB, result: Result, o: StudyRunOptions, cancel: Cance
   if (values.length !== p.members * p.plan.nBins) throw new Error(`Member values of ${values.length} numbers for ${p.members} members × ${p.plan.nBins} bins`)
   cancel.check()
   await setPhase(db, result.id, 'combining', p.members, p.members, o.onProgress)
-  const combined = await combineRun(p.spec, p.set, second ? p.roles : null, values, result.specSnapshot.clPercent, { pool, signal: cancel.signal, scale })
+  const combined = await combineRun(p.spec, p.set, second ? p.roles : null, values, result.specSnapshot.clPercent, { pool, signal: cancel.signal, scale, apart: apartOf(p) })
   cancel.check()
   await setPhase(db, result.id, 'storing', p.members, p.members, o.onProgress)
   await storeRun(db, result, combined, cancel)
@@ -140,22 +166,41 @@ export interface CombinedRun {
   bands: StoredBands[]
 }
 
+/** What combineRun needs of an apart run's second set (two-sets.ts): its header and the result's set's member count. */
+export interface ApartInput {
+  setMembers: number
+  second: { header: SetHeader }
+}
+
+/** The apart input of a prepared run, or null when it is not an apart run. */
+function apartOf(p: Prepared): ApartInput | null {
+  return p.variation.variation === 'apart' && p.partner ? { setMembers: p.variation.setMembers, second: p.partner } : null
+}
+
 /**
  * The after-phase's computing: the bands of every prescription of the set's kind (on the pool's
  * threads in parallel, or inline) and the scale variation (awaited when it already runs on the
- * pool, else computed here). `roles` carries the second set when the study reads two.
+ * pool, else computed here). `roles` carries the second set when the study reads two. An apart
+ * run (`o.apart`; values = the set's members then the second set's members 1…) stores for each
+ * prescription the combination in quadrature with both parts (apartStoredBands).
  */
 export async function combineRun(spec: StudySpec, set: ErrorSet, roles: { main: ErrorSet, second: ErrorSet | null } | null, values: Float64Array, clPercent: number,
-  o: { pool: boolean, signal?: AbortSignal, scale?: Promise<ScaleVariationJson | null> | null }): Promise<CombinedRun> {
+  o: { pool: boolean, signal?: AbortSignal, scale?: Promise<ScaleVariationJson | null> | null, apart?: ApartInput | null }): Promise<CombinedRun> {
   // With K-factors every member's value is K-scaled first: the stored values, the bands and all
   // that is later computed from them (other prescriptions, matrices, comparisons) are K-scaled.
-  const matrix = withKFactors(spec, { members: set.members.length, bins: spec.bins.length, values })
+  const rows = o.apart ? o.apart.setMembers + o.apart.second.header.memberCount - 1 : set.members.length
+  const matrix = withKFactors(spec, { members: rows, bins: spec.bins.length, values })
   const source = memberSourceOf(set.header)
   const main = roles?.main ?? set
   const second = roles?.second ?? null
   let bands: StoredBands[]
   let scale: ScaleVariationJson | null
-  if (o.pool) {
+  if (o.apart) {
+    const apart = o.apart
+    const parts = splitApart(matrix, apart.setMembers, apart.second.header.memberCount)
+    bands = prescriptionsFor(set.header.kind).map(p => apartStoredBands(parts, { set: source, second: apart.second.header }, p, clPercent))
+    scale = o.scale ? await o.scale : o.pool ? await scaleOnPool(spec, main, second, o.signal) : scaleVariationOf(spec, main, second)
+  } else if (o.pool) {
     const sharedMatrix = { ...matrix, values: shared(matrix.values) }
     const pending = prescriptionsFor(set.header.kind).map(p => bandsOnPool(sharedMatrix, source, p, clPercent, o.signal))
     const scaleNow = o.scale ?? scaleOnPool(spec, main, second, o.signal)
@@ -201,36 +246,88 @@ export async function storeRun(db: DB, result: Result, c: CombinedRun, cancel?: 
   })
 }
 
-/** The members m0…m1 of the varying set with the partner's central member (if any), as a pool or inline evaluation takes them. */
-function memberInputs(p: Prepared, m0: number, m1: number) {
-  const varying = p.roles.varyingRole === 'main' ? p.roles.main : p.roles.second!
-  const fixedSet = p.roles.varyingRole === 'main' ? p.roles.second : p.roles.main
-  // Kernels with α_s (gg → H) run each member of the varying main set with its own α_s(M_Z).
-  const h = varying.header
-  const alphas: MemberAlphas | null = p.roles.varyingRole === 'main' && p.plan.alphas
-    ? { header: { alphasMz: h.alphasMz, alphasMzCentral: h.alphasMzCentral, scheme: h.scheme, memberCount: varying.members.length }, first: m0 }
-    : null
-  return { varying, fixed: fixedSet ? fixedSet.members[0]! : null, role: p.roles.varyingRole, m0, m1, alphas }
+/** One stretch of a run's rows: members of one set, with the other set's central member or its paired members. */
+interface Segment {
+  /** The evaluated set's members of this stretch (all of them, not yet sliced for the pool). */
+  members: readonly Float64Array[]
+  role: 'main' | 'second'
+  fixed: Float64Array | null
+  partner: readonly Float64Array[] | null
+  alphas: MemberAlphas | null
+  /** The first row of the run this stretch fills. */
+  row: number
 }
 
 /**
- * members m0…m1 × bins values of the varying set, member-major, with progress and cancel checks;
- * the partner set (if any) is held at its central member. `progress(n)` records n more members.
+ * The rows m0…m1 of a run as stretches (see two-sets.ts): rows < the set's member count are the
+ * result's set's members (the partner at its central member, or — paired — its member of the same
+ * index); an apart run's later rows are the partner's members 1… with the result's set at its
+ * central member.
+ */
+function segmentsOf(p: Prepared, m0: number, m1: number): Segment[] {
+  const { roles, partner, variation } = p
+  const setRole = roles.varyingRole
+  const partnerRole = setRole === 'main' ? 'second' : 'main'
+  const n = variation.setMembers
+  const out: Segment[] = []
+  // Kernels with α_s (gg → H) run each member of a varying main set with its own α_s(M_Z).
+  const alphasOf = (set: ErrorSet, role: 'main' | 'second', first: number): MemberAlphas | null => {
+    const h = set.header
+    return role === 'main' && p.plan.alphas
+      ? { header: { alphasMz: h.alphasMz, alphasMzCentral: h.alphasMzCentral, scheme: h.scheme, memberCount: set.members.length }, first }
+      : null
+  }
+  if (m0 < n) {
+    const hi = Math.min(m1, n)
+    const paired = variation.variation === 'paired' && partner ? partner.members.slice(m0, hi) : null
+    out.push({
+      members: p.set.members.slice(m0, hi), role: setRole, fixed: partner && !paired ? partner.members[0]! : null,
+      partner: paired, alphas: alphasOf(p.set, setRole, m0), row: m0
+    })
+  }
+  if (variation.variation === 'apart' && partner && m1 > n) {
+    const lo = Math.max(m0, n)
+    // Row r (≥ n) is the partner's member r − n + 1.
+    out.push({
+      members: partner.members.slice(lo - n + 1, m1 - n + 1), role: partnerRole, fixed: p.set.members[0]!,
+      partner: null, alphas: alphasOf(partner, partnerRole, lo - n + 1), row: lo
+    })
+  }
+  return out
+}
+
+/**
+ * members m0…m1 × bins values of the run's rows, member-major, with progress and cancel checks
+ * (segmentsOf says which set varies in which rows). `progress(n)` records n more members.
  */
 async function evaluateRange(p: Prepared, m0: number, m1: number, pool: boolean, cancel: CancelWatch, progress: (n: number, done: number) => Promise<void>) {
-  const input = memberInputs(p, m0, m1)
-  const count = m1 - m0
+  const out = new Float64Array((m1 - m0) * p.plan.nBins)
+  let done = 0
+  for (const segment of segmentsOf(p, m0, m1)) {
+    const values = await evaluateSegment(p, segment, pool, cancel, async (n) => {
+      done += n
+      await progress(n, done)
+    })
+    out.set(values, (segment.row - m0) * p.plan.nBins)
+  }
+  return out
+}
+
+/** One stretch of rows on the pool or inline (see evaluateRange). */
+async function evaluateSegment(p: Prepared, input: Segment, pool: boolean, cancel: CancelWatch, progress: (n: number) => Promise<void>) {
+  const count = input.members.length
   if (pool) {
-    const members = sharedMembers(input.varying.members, m0, m1)
+    const members = sharedMembers(input.members)
     const step = Math.max(1, Math.ceil(count / (poolThreads() * 4)))
     let reported = 0
     try {
       return await evaluateOnPool({
-        plan: p.plan, members, fixed: input.fixed ? shared(input.fixed) : null, varying: input.role, alphas: input.alphas, step, signal: cancel.signal,
+        plan: p.plan, members, fixed: input.fixed ? shared(input.fixed) : null, partner: input.partner ? sharedMembers(input.partner) : null,
+        varying: input.role, alphas: input.alphas, step, signal: cancel.signal,
         onTaskDone: async (done) => {
           const n = done - reported
           reported = done
-          await progress(n, done)
+          await progress(n)
         }
       })
     } catch (err) {
@@ -242,9 +339,11 @@ async function evaluateRange(p: Prepared, m0: number, m1: number, pool: boolean,
   const step = chunkSize(count)
   for (let k = 0; k < count; k += step) {
     const k1 = Math.min(count, k + step)
-    const members = input.varying.members.slice(m0 + k, m0 + k1)
-    runMembers({ plan: p.plan, members, fixed: input.fixed, varying: input.role, out: values, m0: k, alphas: input.alphas ? { ...input.alphas, first: m0 + k } : null })
-    await progress(k1 - k, k1)
+    runMembers({
+      plan: p.plan, members: input.members.slice(k, k1), fixed: input.fixed, partner: input.partner ? input.partner.slice(k, k1) : null,
+      varying: input.role, out: values, m0: k, alphas: input.alphas ? { ...input.alphas, first: input.alphas.first + k } : null
+    })
+    await progress(k1 - k)
     cancel.check()
   }
   return values

@@ -7,7 +7,8 @@ import { conflictOnUnique, fail } from '../errors'
 import { cancelRow, enqueueRow, type QueueSource } from '../jobs/queue'
 import { insertResultVersions } from '../results/versions'
 import { setsOfWorkspace } from '../sets/library'
-import { runSizeProblem, studySizeProblem } from './check'
+import { LIMITS } from '../limits'
+import { runSizeProblem, runVariation, studySizeProblem, variationProblem } from './check'
 
 /**
  * Makes one new result version per set of `setIds` (all in the study) and queues a job for each,
@@ -60,8 +61,10 @@ async function runInputs(db: DB, study: Study, setIds: readonly string[]) {
   if (tooLarge) throw tooLarge
   const sets = await setsOfWorkspace(db, study.workspaceId, setIds)
   const [second] = study.secondSetId ? await setsOfWorkspace(db, study.workspaceId, [study.secondSetId], 'secondSetId') : [null]
+  const unvaried = variationProblem(spec, second)
+  if (unvaried) throw unvaried
   for (const s of sets) {
-    const runTooLarge = runSizeProblem(spec, s)
+    const runTooLarge = runSizeProblem(spec, s, LIMITS, runVariation(spec, s, second).rows)
     if (runTooLarge) throw runTooLarge
   }
   return { spec, sets, second: second ?? null }

@@ -7,7 +7,8 @@ import type { SetHeader } from '../../../shared/physics/types'
 import { slotIssues } from '../../../shared/utils/set-match'
 import { DomainError, fail } from '../errors'
 import { setsOfWorkspace } from '../sets/library'
-import { checkSpec, reachProblems, runSizeProblem, studySizeProblem, type ReachProblem } from './check'
+import { LIMITS } from '../limits'
+import { checkSpec, reachProblems, runSizeProblem, runVariation, studySizeProblem, variationProblem, type ReachProblem } from './check'
 
 /** What the API shows of a study. */
 export const publicStudy = (s: Study) => ({
@@ -62,8 +63,10 @@ export async function validateStudy(db: DB, workspaceId: string, input: StudyInp
   const [second] = input.secondSetId ? await setsOfWorkspace(db, workspaceId, [input.secondSetId], 'secondSetId') : [null]
   const slots = slotIssues(checked.spec.kernel, sets.map(densityOfRow), second ? densityOfRow(second) : null)
   if (slots.length) fail(400, `${slots.length === 1 ? 'A set does not fit its slot' : `${slots.length} sets do not fit their slots`}: ${slots[0]!.message}`, { issues: slots })
+  const unvaried = variationProblem(checked.spec, second)
+  if (unvaried) throw unvaried
   for (const s of sets) {
-    const runTooLarge = runSizeProblem(checked.spec, s)
+    const runTooLarge = runSizeProblem(checked.spec, s, LIMITS, runVariation(checked.spec, s, second).rows)
     if (runTooLarge) throw runTooLarge
   }
   const problems: ReachProblem[] = sets.flatMap(s => reachProblems(checked.spec, s, second))

@@ -64,7 +64,8 @@ export const studySpecSchema = z.strictObject({
   scaleFactor: z.number().min(0.25, 'must be at least 0.25').max(4, 'must be at most 4').optional(),
   renormalisationScaleFactor: z.number().min(0.25, 'must be at least 0.25').max(4, 'must be at most 4').optional(),
   rangeMode: z.enum(['integrate', 'average']).optional(),
-  kFactors: kFactorsSchema.optional()
+  kFactors: kFactorsSchema.optional(),
+  varySecondSet: z.boolean({ error: 'must be true or false' }).optional()
 })
 
 /** A study specification as written by a user (optional fields may be missing). */
@@ -87,6 +88,12 @@ export interface StudySpec {
   rangeMode: 'integrate' | 'average'
   /** Per-bin K-factors multiplying every member's value before the bands; absent: none. */
   kFactors?: StudyKFactors
+  /**
+   * Vary the study's second set too (each set's members with the other at its central member,
+   * the two bands combined in quadrature; uncertainty/two-sets.ts). A fragmentation second set
+   * always varies; two sets of one family with the same member layout are paired instead.
+   */
+  varySecondSet?: boolean
 }
 
 /** One problem found in a study, located for the bins grid. */
@@ -258,7 +265,8 @@ export function checkStudySpec(input: unknown): StudyCheck {
       scaleFactor: doc.scaleFactor ?? 1,
       ...(doc.renormalisationScaleFactor !== undefined ? { renormalisationScaleFactor: doc.renormalisationScaleFactor } : {}),
       rangeMode: doc.rangeMode ?? 'integrate',
-      ...(doc.kFactors ? { kFactors: doc.kFactors } : {})
+      ...(doc.kFactors ? { kFactors: doc.kFactors } : {}),
+      ...(doc.varySecondSet ? { varySecondSet: true } : {})
     }
   }
 }

@@ -42,3 +42,6 @@ export { type Measurement, type ChiSquareResult, experimentalCovariance, chiSqua
 
 // Numerical helpers
 export { NeumaierSum, neumaierSum } from './summation'
+
+// Predictions on two sets (paired members, or each set varied apart)
+export { type TwoSetVariation, pairable, twoSetVariation, variationText, splitApart, combineApart, apartCovariance } from './two-sets'

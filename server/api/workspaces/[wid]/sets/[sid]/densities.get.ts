@@ -1,5 +1,5 @@
 import { prescriptionsFor } from '../../../../../../shared/physics/uncertainty/bands'
-import { assertQ2Inside } from '../../../../../domain/sets/library'
+import { assertQ2Inside, assertXInside } from '../../../../../domain/sets/library'
 import { loadErrorSet } from '../../../../../domain/sets/store'
 import { densityOf } from '../../../../../../shared/physics/fragmentation/species'
 import { densityText } from '../../../../../../shared/physics/sets/density-words'
@@ -11,8 +11,9 @@ import { findSet } from '../../../../../domain/lookups'
 // x·f(x, Q²) of chosen flavours (?flavours=21,2,-2,uv …) at ?q2= with the set's band
 // (?prescription=, default by kind; ?cl=, default 68), on ?points= x values spaced evenly in ln x
 // or x (?spacing=log|linear), and with ?ratioTo=<set id> the band divided by that set's central
-// member. For a fragmentation set the same for z·D(z, Q²): x is read as z, the valence
-// combinations uv, dv do not apply, and a ratio needs another set of the same density.
+// member. ?x= gives one x instead of the spaced points (422 outside the grid). For a
+// fragmentation set the same for z·D(z, Q²): x is read as z, the valence combinations uv, dv do
+// not apply, and a ratio needs another set of the same density.
 export default defineEventHandler(async (event) => {
   const { workspace, set: row } = await requireSet(event, 'viewer')
   const workspaceId = workspace.id
@@ -28,7 +29,9 @@ export default defineEventHandler(async (event) => {
   assertQ2Inside(query.q2, Math.max(row.q2Min, reference?.q2Min ?? 0), Math.min(row.q2Max, reference?.q2Max ?? Infinity))
   const prescription = setPrescription(row.kind, query.prescription)
   const clPercent = query.cl ?? 68
-  const x = (query.spacing === 'linear' ? linearSpacedX : logSpacedX)(Math.max(row.xMin, reference?.xMin ?? 0), Math.min(row.xMax, reference?.xMax ?? 1), query.points)
+  const [xLo, xHi] = [Math.max(row.xMin, reference?.xMin ?? 0), Math.min(row.xMax, reference?.xMax ?? 1)]
+  if (query.x !== undefined) assertXInside(query.x, xLo, xHi)
+  const x = query.x !== undefined ? Float64Array.of(query.x) : (query.spacing === 'linear' ? linearSpacedX : logSpacedX)(xLo, xHi, query.points)
   const db = useDB()
   const set = await loadErrorSet(db, row.id)
   const ref = reference ? await loadErrorSet(db, reference.id) : undefined
