@@ -1,4 +1,5 @@
 import { z } from 'zod'
+import { setDensitySchema } from '../fragmentation/species'
 import { partonCodeSchema } from '../partons'
 import type { SetHeader } from '../types'
 import { SET_BODY_ORDER, SET_FORMAT_VERSION } from './format'
@@ -37,7 +38,8 @@ export const setHeaderSchema = z.strictObject({
   ]),
   provenance: z.string().max(4000),
   memberCount: z.number().int().min(0),
-  replicaCentral: z.enum(['mean', 'fit']).optional()
+  replicaCentral: z.enum(['mean', 'fit']).optional(),
+  density: setDensitySchema.optional()
 })
 
 
