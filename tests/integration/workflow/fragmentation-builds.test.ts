@@ -40,16 +40,16 @@ describe('building fragmentation functions from a fit', () => {
   }
 
   it.each([
-    ['parton-density sum rules', (d: typeof pion) => { d.sumRules = { momentum: 'gluon' } }, 400, 'sumRules', /do not apply to fragmentation functions/],
-    ['an unknown hadron species', (d: typeof pion) => { d.density = { type: 'fragmentation', hadron: 'pion' } }, 400, 'density.hadron', /hadron must be one of pi\+, pi-/],
-    ['a nuclear target', (d: typeof pion) => { d.target = { type: 'nucleus', z: 26, a: 56 } }, 400, 'target', /not a target/],
+    ['parton-density sum rules', 400, 'sumRules', /do not apply to fragmentation functions/, (d: typeof pion) => { d.sumRules = { momentum: 'gluon' } }],
+    ['an unknown hadron species', 400, 'density.hadron', /hadron must be one of pi\+, pi-/, (d: typeof pion) => { d.density = { type: 'fragmentation', hadron: 'pion' } }],
+    ['a nuclear target', 400, 'target', /not a target/, (d: typeof pion) => { d.target = { type: 'nucleus', z: 26, a: 56 } }],
     // 4 × the favoured amplitude: ∫ z·D_u dz = 4 × 0.32 = 1.28 > 1 already at the central values.
-    ['a parton giving more than its whole momentum to π⁺', (d: typeof pion) => { d.parameters[0].value *= 4 }, 422, 'pieces', /the central member: ∫ z·D dz of parton (u|d̄) is 1\.28\d* > 1/],
+    ['a parton giving more than its whole momentum to π⁺', 422, 'pieces', /the central member: ∫ z·D dz of parton (u|d̄) is 1\.28\d* > 1/, (d: typeof pion) => { d.parameters[0].value *= 4 }],
     // A negative unfavoured piece: z·D < 0 on the grid.
-    ['a negative fragmentation function', (d: typeof pion) => { d.parameters[3].value = -0.4 }, 422, 'pieces', /the central member: z·D of parton .* is -.* < 0 at z = /],
+    ['a negative fragmentation function', 422, 'pieces', /the central member: z·D of parton .* is -.* < 0 at z = /, (d: typeof pion) => { d.parameters[3].value = -0.4 }],
     // Hessian shifts of a huge covariance reach negative amplitudes: located at the tolerance.
-    ['members that turn negative', (d: typeof pion) => { d.covariance[3][3] = 1 }, 422, 'members.tolerance', /member \d+ \(eigenvector \d+, (up|down)\).*z·D of parton .* < 0/]
-  ])('refuses %s (%i at %s) and leaves no row, job or audit entry', async (_label, edit, status, path, message) => {
+    ['members that turn negative', 422, 'members.tolerance', /member \d+ \(eigenvector \d+, (up|down)\).*z·D of parton .* < 0/, (d: typeof pion) => { d.covariance[3][3] = 1 }]
+  ] as const)('refuses %s (%i at %s) and leaves no row, job or audit entry', async (_label, status, path, message, edit) => {
     const before = await traces()
     const res = await ws.analyst.client.post(builds(), { input: variant(edit), grid: coarse })
     expect(res.status, JSON.stringify(res.body)).toBe(status)

@@ -15,6 +15,7 @@ import { expectClose } from '../close'
 
 /** The fields of an input document these tests change. */
 interface FitDoc {
+  name: string
   density?: { type: string, hadron?: string }
   target: unknown
   sumRules?: unknown
