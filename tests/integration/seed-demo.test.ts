@@ -9,7 +9,7 @@ import { fileURLToPath } from 'node:url'
 import { and, count, eq, inArray } from 'drizzle-orm'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { DEMO_USERS, DEMO_WORKSPACE } from '../../scripts/seed/01-demo-users'
-import { DEMO_FAMILY, DEMO_SETS } from '../../scripts/seed/02-demo-sets'
+import { DEMO_FAMILY, DEMO_FRAGMENTATION, DEMO_SETS } from '../../scripts/seed/02-demo-sets'
 import { DEMO_STUDIES } from '../../scripts/seed/03-demo-studies'
 import { bytesToFloat64 } from '../../server/domain/results/float64'
 import { loadErrorSet } from '../../server/domain/sets/store'
@@ -127,6 +127,36 @@ describe('demo seed', () => {
     expect(ironSet.header.provenance).toMatch(/nucleus Z = 26, A = 56 from family Ostrand .*A-dependence/)
     // The neutrino iron studies run on the iron set.
     for (const name of ['KNU-04 · ν Fe charged-current F₂', 'KNU-04 · ν Fe charged-current xF₃']) expect((await demoStudy(name)).setIds).toContain(ironRow.id)
+  })
+
+  it('builds the invented fragmentation family Verrel-FF-26 (π⁺, π⁻, K⁺, K⁻) with timelike evolution, π⁻ and K⁻ the charge conjugates of π⁺ and K⁺', async () => {
+    expect(DEMO_FRAGMENTATION.fits.map(f => fit(f.fit).name)).toEqual(['Verrel-FF-26-pi+', 'Verrel-FF-26-pi-', 'Verrel-FF-26-K+', 'Verrel-FF-26-K-'])
+    const sets = new Map<string, Awaited<ReturnType<typeof loadErrorSet>>>()
+    for (const f of DEMO_FRAGMENTATION.fits) {
+      const doc = fit(f.fit)
+      const row = await setByName(doc.name)
+      expect(row, doc.name).toMatchObject({ family: 'Verrel-FF-26', version: doc.version, kind: 'hessian-pairs', memberCount: 1 + 2 * doc.parameters.length, confidenceLevelPercent: 90, origin: 'build' })
+      const set = await loadErrorSet(db, row.id)
+      expect(set.header.density).toEqual({ type: 'fragmentation', hadron: doc.density.hadron })
+      expect(set.header.provenance).toMatch(/fragmentation functions z·D.*timelike.*rough/)
+      sets.set(doc.density.hadron, set)
+    }
+    // Charge conjugation D_q^{h̄}(z, Q²) = D_q̄^{h}(z, Q²) on every member, node and flavour: the
+    // documents conjugate the flavours, and LO evolution treats q and q̄ alike (exact to rounding).
+    for (const [h, hbar] of [['pi+', 'pi-'], ['K+', 'K-']] as const) {
+      const a = sets.get(h)!
+      const b = sets.get(hbar)!
+      const nf = a.flavours.length
+      const partner = a.flavours.map(f => b.flavours.indexOf(f === 21 ? 21 : -f))
+      let worst = 0
+      a.members.forEach((m, k) => {
+        for (let i = 0; i < m.length; i++) {
+          const other = b.members[k]![i - (i % nf) + partner[i % nf]!]!
+          worst = Math.max(worst, Math.abs(m[i]! - other) / Math.max(Math.abs(m[i]!), 1e-300))
+        }
+      })
+      expect(worst, `${h} against ${hbar}`).toBeLessThanOrEqual(1e-12)
+    }
   })
 
   it('stores every demo study with a finished result on each of its sets', async () => {

@@ -1,6 +1,7 @@
 /**
  * `sheaf members <input.json> --hessian T | --replicas N [--seed S] --out <set-file>`: an error
- * set from a fit's parameters and covariance, every member LO-evolved.
+ * set from a fit's parameters and covariance, every member LO-evolved (timelike for a
+ * fragmentation input).
  */
 import jStat from 'jstat'
 import { buildErrorSet, type MemberRequest } from '../../../shared/physics/evolution'
@@ -26,6 +27,9 @@ the grid the input asks for:
                  Philox4x32-10 stream: the same seed gives the same replicas on any machine);
                  member 0 is the replica mean, kind replicas
 Without either, the input's own "members" block is used. Prints a JSON summary of what it wrote.
+An input that declares "density": { "type": "fragmentation", "hadron": … } describes
+fragmentation functions z·D_i^h: every member is checked (z·D ≥ 0 on the grid, ∫ z·D dz ≤ 1 per
+parton) and evolved with the LO timelike kernels, and the set's header says which hadron.
 
 Options:
   --seed S           replica seed, a whole number ≥ 0 (default: the input's members.seed, else 1)
@@ -124,6 +128,7 @@ export async function runMembers(argv: readonly string[], io: CliIo): Promise<nu
       kind: header.kind,
       members: header.memberCount,
       clPercent: header.confidenceLevelPercent,
+      ...(header.density ? { density: header.density } : {}),
       grid: { nx: set.x.length, nq2: set.q2.length, nf: set.flavours.length },
       bytes,
       provenance: header.provenance

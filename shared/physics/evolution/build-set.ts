@@ -7,6 +7,7 @@ import { makeAlphas } from '../alphas'
 import { MZ_GEV } from '../constants'
 import { bindParameters } from '../input/bind'
 import { evaluateXf } from '../input/evaluate'
+import { fragmentationProblem } from '../input/fragmentation'
 import type { InputModel } from '../input/model'
 import { hessianMembers } from '../fit/hessian'
 import { replicaParameters } from '../fit/replicas'
@@ -51,7 +52,30 @@ export function planForModel(model: InputModel, options: ModelEvolutionOptions =
     q2: options.q2 ?? (g?.q2 ? { count: g.q2.count, maxGeV2: g.q2.maxGeV2 } : undefined),
     interpolationDegree: options.interpolationDegree,
     maxStep: options.maxStep,
-    taylorOrder: options.taylorOrder
+    taylorOrder: options.taylorOrder,
+    direction: model.density?.type === 'fragmentation' ? 'timelike' : 'spacelike'
+  })
+}
+
+/**
+ * What a fragmentation set records about its grid: the species and that x is read as z, with the
+ * usual LO caution. Nothing for parton densities.
+ */
+function densityProvenance(model: InputModel): string[] {
+  const d = model.density
+  if (d?.type !== 'fragmentation') return []
+  return [`fragmentation functions z·D_i^h(z, Q²) of the partons i into ${d.hadron} (the grid's x axis is z), evolved with the LO timelike kernels; LO fragmentation functions are rough`]
+}
+
+/**
+ * For a fragmentation input, refuses the first member that is negative on the z nodes or gives
+ * one parton a momentum fraction above 1 (input/fragmentation.ts), before anything is evolved.
+ */
+function checkFragmentationMembers(model: InputModel, plan: EvolutionPlan, vectors: ArrayLike<number>[], label: (k: number) => string): void {
+  if (model.density?.type !== 'fragmentation') return
+  vectors.forEach((params, k) => {
+    const problem = fragmentationProblem(bindParameters(model, params, label(k)), plan.x, label(k))
+    if (problem) throw new RangeError(`${model.name}: ${problem}`)
   })
 }
 
@@ -133,6 +157,7 @@ export async function buildErrorSet(model: InputModel, request?: MemberRequest, 
   const provenance = [
     `${model.name} ${model.version} (family ${model.family})${model.baseline ? `, nuclear modification of ${model.baseline.name} ${model.baseline.version} at its central values` : ''}`,
     ...nucleusProvenance(model),
+    ...densityProvenance(model),
     `members: ${description}`,
     `engine: Sheaf ${plan.method}`,
     ...(options.provenance ? [options.provenance] : [])
@@ -148,14 +173,16 @@ export async function buildErrorSet(model: InputModel, request?: MemberRequest, 
     scheme: model.scheme,
     target: model.target,
     provenance,
-    memberCount: total
+    memberCount: total,
+    ...(model.density?.type === 'fragmentation' ? { density: model.density } : {})
   }
   checkMemberCount(header)
+  const labelOf = (k: number) => (req.type === 'replicas' ? `replica ${k + 1}` : `member ${k}`)
+  checkFragmentationMembers(model, plan, vectors, labelOf)
   const members: Float64Array[] = []
   let done = 0
   for (let k = 0; k < vectors.length; k++) {
-    const label = req.type === 'replicas' ? `replica ${k + 1}` : `member ${k}`
-    members.push(evolveModel(model, plan, vectors[k]!, label).values)
+    members.push(evolveModel(model, plan, vectors[k]!, labelOf(k)).values)
     done++
     await options.onProgress?.(done, total)
   }

@@ -15,13 +15,15 @@ export { convolutionMatrices, type ConvolutionMatrices } from './convolution'
 export { CA, CF, PQQ_DELTA, TR, pggDelta, pgq, pqg } from './splitting'
 export { gammaGG, gammaGQ, gammaQG, gammaQQ } from './anomalous-dimensions'
 export { fromEvolutionBasis, toEvolutionBasis, type EvolutionBasis } from './flavour-basis'
+export { singletCouplings, singletOffDiagonalMoments, type EvolutionDirection } from './timelike'
 
 // Evolution methods
 export { createEvolutionPlan, evolveMember, type EvolutionPlan, type EvolutionSetup } from './xspace'
-export { evolveMellin, type MellinPoint, type MellinSetup } from './mellin'
+export { evolveMellin, momentumBelowMellin, type MellinPoint, type MellinSetup } from './mellin'
 
 // Sum rules after evolution
-export { gridSumRules, integrateX, type GridSumRules } from './sum-rules'
+export { gridSumRules, integrateX, integrateXParts, type GridSumRules } from './sum-rules'
+export { fragmentationMomentumSums, type FragmentationSums } from './fragmentation-sums'
 export { nucleusSumRules, perNucleonGrid, type NucleusSumRules } from './nuclear-sum-rules'
 
 // Error sets from a fit

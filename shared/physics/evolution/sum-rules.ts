@@ -21,6 +21,18 @@ import { gaussLegendre } from '../quadrature'
  * @example integrateX(grid.x, column, 1) // momentum fraction carried by that column
  */
 export function integrateX(x: ArrayLike<number>, values: ArrayLike<number>, p: 0 | 1, degree = 7): number {
+  const parts = integrateXParts(x, values, p, degree)
+  return parts.grid + parts.tail
+}
+
+/**
+ * The two parts of `integrateX`: `grid` = ∫ over [x₀, 1] of the interpolant, `tail` = the
+ * power-law estimate of ∫ over [0, x₀] (0 when F(x₀) = 0), so that a caller can say how much of
+ * an integral lies below the grid.
+ * @throws RangeError as integrateX.
+ * @example integrateXParts(grid.x, column, 1).tail // the estimated part below the first node
+ */
+export function integrateXParts(x: ArrayLike<number>, values: ArrayLike<number>, p: 0 | 1, degree = 7): { grid: number, tail: number } {
   if (p !== 0 && p !== 1) throw new RangeError(`integrateX takes p = 0 (number) or 1 (momentum); got ${p}`)
   if (values.length !== x.length) throw new RangeError(`${values.length} values for ${x.length} x nodes`)
   const ell = closedLogNodes(x)
@@ -47,15 +59,16 @@ export function integrateX(x: ArrayLike<number>, values: ArrayLike<number>, p: 0
   }
   const f0 = values[0]!
   const f1 = values[1]!
+  let tail = 0
   if (f0 !== 0) {
     const x0 = x[0]!
     const lambda = f1 !== 0 && Math.sign(f1) === Math.sign(f0) ? -Math.log(f1 / f0) / Math.log(x[1]! / x0) : 0
     if (!(p - lambda > 0)) {
       throw new RangeError(`the integral below x = ${x0} diverges: x·f grows like x^${(-lambda).toFixed(3)} there`)
     }
-    sum += (f0 * Math.pow(x0, p)) / (p - lambda)
+    tail = (f0 * Math.pow(x0, p)) / (p - lambda)
   }
-  return sum
+  return { grid: sum, tail }
 }
 
 /** Sum-rule integrals of one Q² slice of a member grid. */

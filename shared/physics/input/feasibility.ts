@@ -16,6 +16,8 @@
  * - The start scale: above the one-loop Landau pole (README 7), with α_s(μ₀²) ≤ 1.5, the range
  *   the engine accepts for a reference value.
  * - The Hessian tolerance T (Δχ² = T², README 14): 0.1 ≤ T ≤ 20.
+ * - Fragmentation inputs (fragmentation.ts): for the central member and every member, z·D ≥ 0 on
+ *   the output z nodes and ∫ z·D dz ≤ 1 per parton (in place of the parton-density sum rules).
  */
 import { makeAlphas, type AlphasReference } from '../alphas'
 import { MZ_GEV } from '../constants'
@@ -27,6 +29,7 @@ import type { FlavourScheme } from '../types'
 import { bindParameters, numericTerms } from './bind'
 import type { InputIssue } from './errors'
 import { evaluateXf } from './evaluate'
+import { fragmentationProblem } from './fragmentation'
 import { N_SLOTS, quarkSlots } from './flavours'
 import type { InputModel, ModelPiece } from './model'
 import type { GridSpec, MembersSpec } from './schema'
@@ -47,6 +50,7 @@ export const BUILD_LIMITS = {
 } as const
 
 const physics = (path: string, message: string): InputIssue => ({ path, message, kind: 'physics' })
+const fragmentationOf = (model: InputModel) => model.density?.type === 'fragmentation'
 const fmt = (v: number) => (Number.isFinite(v) ? Number(v.toPrecision(4)).toString() : String(v))
 
 /** The α_s reference of a document's `alphas` block ("mz" → M_Z²). */
@@ -269,6 +273,8 @@ export function memberIssues(model: InputModel, members: MembersSpec | undefined
     const bound = bindParameters(model, model.central, 'the central member')
     const bad = xs ? tooLarge(evaluateXf(bound, xs)) : -1
     if (bad >= 0) return [physics('pieces', `the central member has ${describe(evaluateXf(bound, xs!), bad)} at μ₀², beyond ±${BUILD_LIMITS.maxAbsXf}`)]
+    const fragmentation = xs && fragmentationOf(model) ? fragmentationProblem(bound, xs, 'the central member') : undefined
+    if (fragmentation) return [physics('pieces', fragmentation)]
   } catch (e) {
     if (!(e instanceof RangeError)) throw e
     return [physics(ruleAt, e.message)]
@@ -306,6 +312,8 @@ export function memberIssues(model: InputModel, members: MembersSpec | undefined
     const xf = evaluateXf(bound, xs)
     const bad = tooLarge(xf)
     if (bad >= 0) tallied(values, 'xf', `${label} has ${describe(xf, bad)} at μ₀², beyond ±${BUILD_LIMITS.maxAbsXf}`)
+    const fragmentation = fragmentationOf(model) ? fragmentationProblem(bound, xs, label) : undefined
+    if (fragmentation) tallied(values, 'fragmentation', fragmentation)
   }
   const issues: InputIssue[] = []
   for (const [path, t] of terms) {

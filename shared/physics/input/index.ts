@@ -28,6 +28,7 @@ export {
   type CoefficientRef, type CompileOptions, type FactorRef, type InputModel, type ModelPiece, type SumRuleTargets, type TermSource
 } from './model'
 export { bindParameters, numericTerms, type BoundInput, type BoundPiece } from './bind'
+export { FRAGMENTATION_MOMENTUM_LIMIT, fragmentationMomenta, fragmentationProblem } from './fragmentation'
 
 // Moments and evaluation
 export { multiplyTerms, termMoment, termMomentComplex, termXf, type NumericTerm } from './moments'

@@ -5,6 +5,7 @@
  * baseline term and a modification term.
  */
 import type { AlphasReference } from '../alphas'
+import type { SetDensity } from '../fragmentation/species'
 import { MZ_GEV } from '../constants'
 import type { FlavourScheme, SetTarget } from '../types'
 import { InputError, type InputIssue } from './errors'
@@ -90,6 +91,11 @@ export interface InputModel {
   massNumberDependence?: string[]
   /** For a nuclear modification: the nucleus its document names as target (the family's reference). */
   documentNucleus?: Nucleus
+  /**
+   * What the pieces describe (fragmentation/species.ts): absent for parton densities; for
+   * fragmentation functions z·D_i^h the sets built say so and evolve with the timelike kernels.
+   */
+  density?: SetDensity
 }
 
 /** Options of compileInput. */
@@ -181,7 +187,8 @@ function baseModel(doc: ParametrisedInputDoc, fixed: Map<string, number>, index:
     })),
     sumRules: rules,
     members: doc.members,
-    grid: doc.grid
+    grid: doc.grid,
+    ...(doc.density?.type === 'fragmentation' ? { density: doc.density } : {})
   }
 }
 
@@ -239,6 +246,9 @@ export function compileInput(document: InputDocument, baseline?: InputDocument, 
   }
   if (base.target.type !== 'proton') {
     issues.push({ path: 'baseline', message: 'the baseline must be a free-proton input' })
+  }
+  if (base.density?.type === 'fragmentation') {
+    issues.push({ path: 'baseline', message: 'the baseline describes fragmentation functions; a nuclear modification multiplies parton densities' })
   }
   const baseNames = new Set(base.parameters.map(p => p.name))
   nuc.parameters.forEach((p, i) => {

@@ -220,6 +220,14 @@ function checkParametrised(doc: ParametrisedInputDoc): InputIssue[] {
   if (doc.grid?.q2 && !(doc.grid.q2.maxGeV2 > doc.startScaleGeV2)) {
     issues.push({ path: 'grid.q2.maxGeV2', message: `must exceed the starting scale μ₀² = ${doc.startScaleGeV2} GeV²`, kind: 'physics' })
   }
+  if (doc.density?.type === 'fragmentation') {
+    if (doc.sumRules !== undefined) {
+      issues.push({ path: 'sumRules', message: 'the parton-density sum rules (valence numbers, momentum ∫ x Σ f dx = 1) do not apply to fragmentation functions; remove sumRules (each species is checked for z·D ≥ 0 and ∫ z·D dz ≤ 1 per parton instead)' })
+    }
+    if (doc.target.type !== 'proton') {
+      issues.push({ path: 'target', message: 'fragmentation functions describe a parton turning into hadrons, not a target: give { "type": "proton" } (the field is not used for them)' })
+    }
+  }
   if (doc.target.type === 'nucleus' && doc.target.z > doc.target.a) {
     issues.push({ path: 'target', message: `Z = ${doc.target.z} exceeds A = ${doc.target.a}`, kind: 'physics' })
   }

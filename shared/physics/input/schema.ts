@@ -21,9 +21,15 @@
  *   ],
  *   "sumRules": { "uValence": "uv", "dValence": "dv", "momentum": "g" },   // optional
  *   "members": { "type": "hessian", "tolerance": 1.64485, "confidenceLevelPercent": 90 },   // optional
- *   "grid": { "x": { "count": 100, "min": 1e-6, "max": 0.99 }, "q2": { "count": 40, "maxGeV2": 1e8 } }
+ *   "grid": { "x": { "count": 100, "min": 1e-6, "max": 0.99 }, "q2": { "count": 40, "maxGeV2": 1e8 } },
+ *   "density": { "type": "fragmentation", "hadron": "pi+" }   // optional; absent = parton densities
  * }
  * ```
+ * - **density** (optional) says what the pieces describe: parton densities x·f (absent, or
+ *   `{ "type": "parton" }`) or fragmentation functions z·D_i^h of the partons i into one hadron
+ *   species h (fragmentation/species.ts), x read as z. A fragmentation input takes no `sumRules`
+ *   and a free-proton `target` (the field is not used); its members are checked for z·D ≥ 0 and
+ *   ∫ z·D dz ≤ 1 per parton (fragmentation.ts) and evolved with the timelike kernels.
  * - A **piece** is one function of x with a list of PDG flavours it adds to, each with a weight:
  *   x·f_i(x, μ₀²) = Σ_pieces w_{piece,i} · Σ_terms term(x). Keys are PDG codes as strings
  *   ("1".."6", "-1".."-6", "21"). Standard combinations map as follows:
@@ -55,6 +61,7 @@
  * `target` by default, or for any nucleus asked for.
  */
 import { z } from 'zod'
+import { setDensitySchema } from '../fragmentation/species'
 import { MassNumberCoefficientSchema } from './mass-number'
 
 const NAME_PATTERN = /^[A-Za-z_][A-Za-z0-9_.]*$/
@@ -167,6 +174,7 @@ const Header = {
 export const ParametrisedInputSchema = z.object({
   format: z.literal('sheaf.parametrised-input'),
   ...Header,
+  density: setDensitySchema.optional(),
   target: z.discriminatedUnion('type', [ProtonTarget, NucleusTarget]),
   startScaleGeV2: z.number().positive(),
   alphas: AlphasSchema,

@@ -78,6 +78,35 @@ describe('sheaf members', () => {
     expect(() => readFileSync(out)).toThrow()
   })
 
+  it('builds a fragmentation input (INVENTED Verrel-FF-26-K+, coarse grid) into a set whose header names the hadron', async () => {
+    const coarse = tmp.file('coarse-kaon.json')
+    const doc = JSON.parse(readFileSync('samples/fits/verrel-ff-26-K+.json', 'utf8'))
+    doc.grid = { x: { count: 24, min: 0.01, max: 0.95 }, q2: { count: 6, maxGeV2: 1e3 } }
+    writeFileSync(coarse, JSON.stringify(doc))
+    const out = tmp.file('kaon.sheafset')
+    const run = await sheaf(['members', coarse, '--out', out])
+    expect(run.stderr).toBe('')
+    expect(run.code).toBe(0)
+    const set = parseSetFile(readFileSync(out))
+    expect(set.header).toMatchObject({ name: 'Verrel-FF-26-K+', family: 'Verrel-FF-26', kind: 'hessian-pairs', memberCount: 1 + 2 * doc.parameters.length, density: { type: 'fragmentation', hadron: 'K+' } })
+    expect(set.header.provenance).toMatch(/timelike/)
+    expect(JSON.parse(run.stdout).written.density).toEqual({ type: 'fragmentation', hadron: 'K+' })
+  })
+
+  it('refuses a fragmentation input whose members give one parton more than its whole momentum, naming the file, member and parton', async () => {
+    const bad = tmp.file('greedy-kaon.json')
+    const doc = JSON.parse(readFileSync('samples/fits/verrel-ff-26-K+.json', 'utf8'))
+    doc.grid = { x: { count: 24, min: 0.01, max: 0.95 }, q2: { count: 6, maxGeV2: 1e3 } }
+    // N_s = 5 × the sample's value: ∫ z·D_s̄ dz = 5 × 0.22 = 1.1 > 1.
+    doc.parameters.find((p: { name: string }) => p.name === 'N_s').value *= 5
+    writeFileSync(bad, JSON.stringify(doc))
+    const out = tmp.file('greedy.sheafset')
+    const run = await sheaf(['members', bad, '--out', out])
+    expect(run.code).toBe(1)
+    expect(oneLine(run)).toMatch(/greedy-kaon\.json: .*member 0: ∫ z·D dz of parton s̄ is 1\.1\d* > 1/)
+    expect(() => readFileSync(out)).toThrow()
+  })
+
   // Two-sided Gaussian coverage P(|Z| ≤ T): 68.27% at T = 1 (written 68, common practice) and
   // 90% at T = 1.644854 (the 95th percentile of the normal, any statistics table).
   it.each([[1, 68], [1.6448536269514722, 90]])('gives Hessian members at T = %d a CL of %d%%', (t, cl) => {
