@@ -52,5 +52,5 @@ export const SAMPLE_FILES: Readonly<Record<string, readonly string[]>> = {
   bins: ['drell-yan-high-mass.csv', 'w-rapidity.csv', 'ppb-drell-yan-rapidity.csv', 'neutrino-fe-x-q2.csv'],
   measurements: ['drell-yan-high-mass-pseudodata.csv', 'drell-yan-high-mass-correlation.csv'],
   studies: ['drell-yan-mass.json', 'dis-f2.json', 'w-charge-asymmetry.json', 'higgs-total.json'],
-  sets: ['toy-hessian.sheafset', 'toy-replicas.sheafset']
+  sets: ['toy-hessian.sheafset', 'toy-replicas.sheafset', 'toy-ff-piplus.sheafset']
 }

@@ -3,7 +3,7 @@ import { tmpdir } from 'node:os'
 import { join } from 'node:path'
 import { afterAll, describe, expect, it } from 'vitest'
 import { toyErrorSet, toyQ2Nodes, toyXNodes } from '../../../shared/physics/sets'
-import type { FlavourScheme } from '../../../shared/physics/types'
+import type { ErrorSet, FlavourScheme } from '../../../shared/physics/types'
 import { DomainError } from '../../../server/domain/errors'
 import { parseTableHeader, readSetTable } from '../../../server/domain/sets/table-import'
 import { delimitedChunks, parquetTable, tableColumns, tableSidecar } from '../../../server/domain/sets/table-write'
@@ -97,7 +97,7 @@ describe('sample fragmentation tables (scripts/make-sample-fragmentation.ts)', (
 
   it('every form imports with the sidecar to the same set of fragmentation into π⁺', async () => {
     const header = parseTableHeader(sidecarText, 'The sidecar')
-    const sets = []
+    const sets: ErrorSet[] = []
     for (const name of ['toy-ff-table-long.csv', 'toy-ff-table-wide.tsv', 'toy-ff-table-wide.csv.gz', 'toy-ff-table-long.parquet']) {
       const { set: back } = await readSetTable(join(samples, name), name, header, 1e9)
       expect(back.header.density, name).toEqual({ type: 'fragmentation', hadron: 'pi+' })
