@@ -18,7 +18,8 @@ export const evolveVerb: VerbSpec = {
   help: `Usage: sheaf evolve <input.json> (--x <list> --q2 <list> | --out <set-file>) [options]
 
 Evolves the input (see the README's input format) at the central values of its parameters with
-the engine's LO x-space DGLAP evolution, from its starting scale μ₀² upwards.
+the engine's LO x-space DGLAP evolution, from its starting scale μ₀² upwards. A fragmentation
+input ("density": fragmentation) is evolved with the timelike kernels; its values are z·D at z = x.
 
 With --x and --q2, prints x·f(x, Q²) of every flavour at every combination of the two lists
 (Q² outer, x inner, in the order given) as

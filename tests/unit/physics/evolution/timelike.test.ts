@@ -21,7 +21,6 @@ import { TOY_MASSES, toyFragmentation, type ToyPiece } from './fragmentation-toy
 // singlet form is in shared/physics/README.md, "Timelike evolution".
 
 const cf = 4 / 3 // C_F = (N_c² − 1)/(2N_c) with N_c = 3
-const tr = 1 / 2 // T_R
 
 describe('timelike kernel entries against the spacelike ones (hand-worked)', () => {
   it.each([
