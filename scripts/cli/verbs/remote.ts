@@ -45,7 +45,7 @@ export async function runRemoteImport(argv: readonly string[], io: CliIo, env: N
 export const remoteRunVerb: VerbSpec = {
   name: 'remote-run',
   summary: 'create and run a study on a Sheaf server, wait for it, print the bands',
-  help: `Usage: sheaf remote-run <study.json> --set <id>[,<id>…] [--name <text>] [--format json|csv] [--server <url>] [--token-file <file>]
+  help: `Usage: sheaf remote-run <study.json> --set <id>[,<id>…] [--second <id>] [--name <text>] [--format json|csv] [--server <url>] [--token-file <file>]
 
 Creates a study from study.json (the same spec 'sheaf compute' reads: kernel, options, bins)
 on the sets given by id in the API token's workspace (analyst role), runs it, shows the
@@ -53,12 +53,16 @@ progress on stderr, and prints each set's bands: the server's JSON export (defau
 
 Options:
   --set <ids>            comma-separated error-set ids of the workspace
+  --second <id>          the study's second set, held at its central member (the
+                         fragmentation set of a sidis-* study, the second species of
+                         epem-species-ratio, beam 2 or the nuclear set of other kernels);
+                         the server refuses a set holding the wrong density (400)
   --name <text>          the study's name (default: the file's name)
   --format json|csv      the export format (default json)
   --timeout <seconds>    give up waiting after this long (default 600)
 ${REMOTE_HELP}
   -h, --help             this text`,
-  options: { set: { type: 'string' }, name: { type: 'string' }, format: { type: 'string' }, timeout: { type: 'string' }, ...REMOTE_OPTIONS },
+  options: { set: { type: 'string' }, second: { type: 'string' }, name: { type: 'string' }, format: { type: 'string' }, timeout: { type: 'string' }, ...REMOTE_OPTIONS },
   positionals: { min: 1, max: 1, what: 'study file' }
 }
 
@@ -81,7 +85,8 @@ export async function runRemoteRun(argv: readonly string[], io: CliIo, env: Node
   const { workspaceId } = await tokenWorkspace(o)
   const api = `/api/workspaces/${workspaceId}`
   const name = stringOption(args, 'name') ?? fileName(file).replace(/\.json$/i, '')
-  const study = await remoteRequest<{ id: string }>(o, 'POST', `${api}/studies`, { name, spec, setIds: sets })
+  const second = stringOption(args, 'second')
+  const study = await remoteRequest<{ id: string }>(o, 'POST', `${api}/studies`, { name, spec, setIds: sets, ...(second ? { secondSetId: second } : {}) })
   const { results } = await remoteRequest<{ results: Array<{ id: string, setId: string }> }>(o, 'POST', `${api}/studies/${study.id}/run`, {})
   io.stderr(`study ${study.id}: ${results.length} run(s) queued\n`)
   const deadline = Date.now() + timeoutS * 1000

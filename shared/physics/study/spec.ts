@@ -21,7 +21,8 @@ import { KERNEL_IDS, kernelDefinition } from '../kernels/registry'
  */
 
 /** Columns a bin row may carry: each variable as a point or as Min/Max. */
-export const BIN_COLUMNS = ['x', 'xMin', 'xMax', 'q2', 'q2Min', 'q2Max', 'y', 'yMin', 'yMax', 'm', 'mMin', 'mMax', 'z', 'zMin', 'zMax', 'sqrtS', 'sqrtSMin', 'sqrtSMax'] as const
+// In the order exports list them: the collision energy first, then x, z and Q² as physicists write them.
+export const BIN_COLUMNS = ['sqrtS', 'sqrtSMin', 'sqrtSMax', 'x', 'xMin', 'xMax', 'z', 'zMin', 'zMax', 'q2', 'q2Min', 'q2Max', 'y', 'yMin', 'yMax', 'm', 'mMin', 'mMax'] as const
 export type BinColumn = typeof BIN_COLUMNS[number]
 
 /** One bin: a point or a range per kernel variable, and an optional label. */
