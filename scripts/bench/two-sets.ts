@@ -31,7 +31,8 @@ async function timeRun(spec: ReturnType<typeof parseStudySpec>, set: ErrorSet, s
     await computeRun(p, 68)
     whole.push(performance.now() - t)
   }
-  return { evaluateMs: median(evaluate), ms: median(whole), rows: p.members, variation: p.variation.variation }
+  const bands = (await computeRun(p, 68)).bands[0]!
+  return { evaluateMs: median(evaluate), ms: median(whole), rows: p.members, variation: p.variation.variation, bands }
 }
 
 export async function runTwoSetBench(io: CliIo) {
@@ -64,4 +65,10 @@ export async function runTwoSetBench(io: CliIo) {
     say(`    ${what}: ${r.rows} rows (${r.variation}): evaluation ${ms(r.evaluateMs)}, whole run ${ms(r.ms)}${vs}`)
   })
   say('    (whole run = evaluation + bands of every prescription + the scale variation, which re-plans the study at three scales)')
+  // What pairing does to the band of the ratio: paired against both sets varied apart (quadrature).
+  const pct = (v: number | null) => (v === null ? '—' : `${(100 * v).toFixed(2)} %`)
+  const [paired, apart] = [rows[1]![1].bands, rows[2]![1].bands]
+  const x = ratio().bins.map(b => b.x!)
+  say(`    C/Pb band (${paired.prescription}, 68 % CL, +side) at x = ${x.filter((_, i) => i % 3 === 0).join(', ')}:`)
+  say(`      paired ${x.map((_, i) => pct(paired.relPlus[i]!)).filter((_, i) => i % 3 === 0).join(', ')}; apart, in quadrature ${x.map((_, i) => pct(apart.relPlus[i]!)).filter((_, i) => i % 3 === 0).join(', ')}`)
 }

@@ -3,7 +3,7 @@ import { resultCautionShort } from './caution'
 import { checkResult } from './bands'
 import { roundMeasurement } from './numbers'
 import type { RoundingOptions } from './numbers'
-import { approvalText, confidenceText, provenanceLines, setText } from './provenance'
+import { approvalText, confidenceText, provenanceLines, secondSetText, setText } from './provenance'
 import type { ResultForExport } from './types'
 
 const SPECIALS: Record<string, string> = {
@@ -239,6 +239,7 @@ export function bandsToLatex(result: ResultForExport, options: LatexTableOptions
     caption: [
       ...(options.caption ? [options.caption] : []),
       `PDF set ${latexText(setText(p))}; ${latexText(confidenceText(p))}.`,
+      ...(p.secondSet ? [`Second set ${latexText(secondSetText(p.secondSet))}.`] : []),
       `Result version ${p.resultVersion}, ${latexText(approvalText(p))}.`
     ]
   }, options)

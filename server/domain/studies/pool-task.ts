@@ -8,7 +8,7 @@ import type { StudySpec } from '../../../shared/physics/study/spec'
 import type { ErrorSet } from '../../../shared/physics/types'
 import type { Prescription } from '../../../shared/physics/uncertainty'
 import type { ScaleVariationJson, StoredBands } from '../../database/schema'
-import { bandsFromValues, storedBands, type MemberSource } from '../results/bands'
+import { apartStoredBands, bandsFromValues, storedBands, type MemberSource } from '../results/bands'
 import { kernelContextOf } from './check'
 import { scaleVariationOf } from './scale'
 
@@ -44,7 +44,12 @@ export interface BandsTask {
   source: MemberSource
   prescription: Prescription
   clPercent: number
+  /** An apart run's second part (apartStoredBands): its members (central first) and its set. */
+  second?: { matrix: { members: number, bins: number, values: Float64Array }, source: ApartSecondSource } | null
 }
+
+/** What apartStoredBands needs of an apart run's second set. */
+export type ApartSecondSource = MemberSource & { name: string, version: string }
 
 export interface ScaleTask {
   op: 'scale'
@@ -84,6 +89,10 @@ export function runMembers(t: Omit<MembersTask, 'op'>): number {
 export default function task(t: PoolTask): number | StoredBands | ScaleVariationJson | Plan | null {
   if (t.op === 'members') return runMembers(t)
   if (t.op === 'plan') return planOf(t.spec, t.main, t.second)
-  if (t.op === 'bands') return storedBands(bandsFromValues(t.matrix, t.source, t.prescription, t.clPercent))
+  if (t.op === 'bands') {
+    return t.second
+      ? apartStoredBands({ main: t.matrix, second: t.second.matrix }, { set: t.source, second: t.second.source }, t.prescription, t.clPercent)
+      : storedBands(bandsFromValues(t.matrix, t.source, t.prescription, t.clPercent))
+  }
   return scaleVariationOf(t.spec, t.main, t.second)
 }

@@ -178,9 +178,9 @@ export async function evaluateOnPool(e: PoolEvaluation): Promise<Float64Array> {
   return values
 }
 
-/** The stored bands of one prescription, computed on a pool thread. */
-export function bandsOnPool(matrix: BandsTask['matrix'], source: MemberSource, prescription: Prescription, clPercent: number, signal?: AbortSignal) {
-  const task: BandsTask = { op: 'bands', matrix, source, prescription, clPercent }
+/** The stored bands of one prescription (with an apart run's second part, if given), computed on a pool thread. */
+export function bandsOnPool(matrix: BandsTask['matrix'], source: MemberSource, prescription: Prescription, clPercent: number, signal?: AbortSignal, second?: BandsTask['second']) {
+  const task: BandsTask = { op: 'bands', matrix, source, prescription, clPercent, second }
   return evaluationPool().run(task, signal ? { signal } : {}) as Promise<StoredBands>
 }
 

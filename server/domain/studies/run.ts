@@ -196,10 +196,20 @@ export async function combineRun(spec: StudySpec, set: ErrorSet, roles: { main: 
   let bands: StoredBands[]
   let scale: ScaleVariationJson | null
   if (o.apart) {
-    const apart = o.apart
-    const parts = splitApart(matrix, apart.setMembers, apart.second.header.memberCount)
-    bands = prescriptionsFor(set.header.kind).map(p => apartStoredBands(parts, { set: source, second: apart.second.header }, p, clPercent))
-    scale = o.scale ? await o.scale : o.pool ? await scaleOnPool(spec, main, second, o.signal) : scaleVariationOf(spec, main, second)
+    const h = o.apart.second.header
+    const parts = splitApart(matrix, o.apart.setMembers, h.memberCount)
+    const secondSource = { ...memberSourceOf(h), name: h.name, version: h.version }
+    if (o.pool) {
+      const secondPart = { matrix: { ...parts.second, values: shared(parts.second.values) }, source: secondSource }
+      const mainPart = { ...parts.main, values: shared(parts.main.values) }
+      const pending = prescriptionsFor(set.header.kind).map(p => bandsOnPool(mainPart, source, p, clPercent, o.signal, secondPart))
+      const scaleNow = o.scale ?? scaleOnPool(spec, main, second, o.signal)
+      bands = await Promise.all(pending)
+      scale = await scaleNow
+    } else {
+      bands = prescriptionsFor(set.header.kind).map(p => apartStoredBands(parts, { set: source, second: secondSource }, p, clPercent))
+      scale = o.scale ? await o.scale : scaleVariationOf(spec, main, second)
+    }
   } else if (o.pool) {
     const sharedMatrix = { ...matrix, values: shared(matrix.values) }
     const pending = prescriptionsFor(set.header.kind).map(p => bandsOnPool(sharedMatrix, source, p, clPercent, o.signal))

@@ -45,8 +45,8 @@ describe('studies on two sets', () => {
     expect(res.status).toBe(400)
     expect(res.body.message).toMatch(/varySecondSet: the study has no second set to vary/)
     expect(res.body.data.issues).toContainEqual(expect.objectContaining({ path: ['varySecondSet'] }))
-    const [{ n }] = await testDB().select({ n: count() }).from(t.studies).where(and(eq(t.studies.workspaceId, ws.id), eq(t.studies.name, 'vary nothing')))
-    expect(n).toBe(0)
+    const [row] = await testDB().select({ n: count() }).from(t.studies).where(and(eq(t.studies.workspaceId, ws.id), eq(t.studies.name, 'vary nothing')))
+    expect(row!.n).toBe(0)
   })
 
   it('pairs two sets of one family: identical sets give a ratio of exactly 1 with no band, labelled in every export', async () => {

@@ -55,6 +55,7 @@ describe('an apart run in the exports', () => {
     const latex = bandsToLatex(data)
     expect(latex).toContain('% second set: toy-ff-pi+ version 1')
     expect(latex).toMatch(/alone/)
+    expect(latex).toContain('Second set toy-ff-pi+ version 1 (hessian-pairs, family toy-ff); sets varied apart, combined in quadrature')
   })
 })
 
