@@ -7,6 +7,7 @@ import type { BinRow as SpecBin, StudyKFactors } from '#shared/physics/study/spe
 import type { BandJson } from '#shared/physics/uncertainty/band'
 import type { IntervalRule } from '#shared/physics/uncertainty/bands'
 import { PRESCRIPTION_LABELS } from '#shared/utils/prescriptions'
+import type { JobPhase } from '#shared/queue/workflow'
 
 // ── The bins grid of a study: which columns a kernel's variables give, and the conversions
 // between the spec's bins and the grid's rows. Pure functions; the pages feed them the kernel's
@@ -281,6 +282,8 @@ export function fetchFailure(err: unknown): { status: number, message: string, i
 export interface ResultRow {
   id: string, studyId: string, setId: string, version: number, studyRevision: number
   state: 'queued' | 'running' | 'done' | 'failed' | 'cancelled'
+  /** The phase named in the progress (queued, evaluating members, combining, storing). */
+  phase?: JobPhase
   progress: { done: number, total: number }, binCount: number, error: string | null, cancelRequested: boolean
   reviewState: 'draft' | 'submitted' | 'returned' | 'approved', frozen: boolean
   startedAt: string | null, finishedAt: string | null, createdAt: string
@@ -298,6 +301,8 @@ export interface StudyDetail {
   id: string, name: string, description: string, spec: StudySpecJson, setIds: string[], secondSetId: string | null
   prescription: string, clPercent: number, revision: number, unit: string | null, updatedAt: string
   results: ResultRow[], measurements: Array<{ id: string, name: string, pointCount: number, createdAt: string }>
+  /** The sets the study and its versions name (the page's first paint needs no more of the library). */
+  sets: Array<{ id: string, name: string, version: string, kind: string, memberCount: number }>
 }
 
 /** The engine's band in its JSON form (null where a relative width is undefined), as the API sends it. */

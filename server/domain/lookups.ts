@@ -2,12 +2,13 @@
 // 404 when the workspace or the row is missing or belongs to another workspace, 403 when the role
 // is too low. The server's event guards (server/utils/guards.ts) call these; nothing else writes
 // its own ownership query.
-import { and, eq } from 'drizzle-orm'
+import { and, eq, getTableColumns } from 'drizzle-orm'
 import type { DB } from '../database/client'
 import { tables as t } from '../database/client'
 import { roleAtLeast, type Role } from '../../shared/utils/roles'
 import { fail } from './errors'
 import { setColumns } from './sets/library'
+import { cachedSnapshot } from './results/cache'
 
 /** The membership of `userId` in workspace `workspaceId` with at least `minRole`, and the workspace. */
 export async function findMembership(db: DB, workspaceId: string, userId: string, minRole: Role) {
@@ -48,12 +49,24 @@ export async function findStudy(db: DB, workspaceId: string, studyId: string) {
 }
 
 /** A result (one version of a study on a set) whose study is in the workspace, with the study. */
+const { specSnapshot: _snapshot, ...resultColumns } = getTableColumns(t.results)
+
+/**
+ * A result of the workspace's studies, with its study's id, name and revision (not the study's
+ * spec). The spec snapshot (all of the study's bins as run, written once) comes from the result
+ * cache after the first read, so each request reads only the small columns.
+ */
 export async function findResult(db: DB, workspaceId: string, resultId: string) {
-  const [row] = await db.select({ result: t.results, study: t.studies }).from(t.results)
+  const [row] = await db.select({ result: resultColumns, study: { id: t.studies.id, name: t.studies.name, revision: t.studies.revision } }).from(t.results)
     .innerJoin(t.studies, eq(t.studies.id, t.results.studyId))
     .where(and(eq(t.results.id, resultId), eq(t.studies.workspaceId, workspaceId)))
   if (!row) fail(404, 'Result not found')
-  return row
+  const specSnapshot = await cachedSnapshot(resultId, async () => {
+    const [r] = await db.select({ specSnapshot: t.results.specSnapshot }).from(t.results).where(eq(t.results.id, resultId))
+    if (!r) fail(404, 'Result not found')
+    return r.specSnapshot
+  })
+  return { result: { ...row.result, specSnapshot }, study: row.study }
 }
 
 /** A measurement attached to study `studyId`. */

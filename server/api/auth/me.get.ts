@@ -1,13 +1,6 @@
-import { asc, eq } from 'drizzle-orm'
-import { tables as t } from '../../database/client'
+import { membershipsOf } from '../../domain/accounts/members'
 
 export default defineEventHandler(async (event) => {
   const user = requireUser(event)
-  const memberships = await useDB()
-    .select({ workspaceId: t.workspaces.id, name: t.workspaces.name, role: t.memberships.role })
-    .from(t.memberships)
-    .innerJoin(t.workspaces, eq(t.workspaces.id, t.memberships.workspaceId))
-    .where(eq(t.memberships.userId, user.id))
-    .orderBy(asc(t.workspaces.name))
-  return { user, memberships }
+  return { user, memberships: await membershipsOf(useDB(), user.id) }
 })

@@ -1,4 +1,4 @@
-import { and, eq, gt, isNull, sql } from 'drizzle-orm'
+import { and, asc, eq, gt, isNull, sql } from 'drizzle-orm'
 import { tables as t, type DB, type Tx } from '../../database/client'
 import type { Workspace } from '../../database/schema'
 import type { Role } from '../../../shared/utils/roles'
@@ -97,4 +97,13 @@ export async function acceptInvitation(db: DB, token: string, user: Actor) {
     await audit(tx, { workspaceId: inv.workspaceId, actorId: user.id, action: 'invitation.accepted', subjectType: 'invitation', subjectId: inv.id, detail: { role: inv.role } })
     return { workspaceId: inv.workspaceId, name: workspaceName, role: inv.role }
   })
+}
+
+/** The workspaces `userId` belongs to, by name, with the role in each (what `/api/auth/me` sends). */
+export function membershipsOf(db: DB, userId: string) {
+  return db.select({ workspaceId: t.workspaces.id, name: t.workspaces.name, role: t.memberships.role })
+    .from(t.memberships)
+    .innerJoin(t.workspaces, eq(t.workspaces.id, t.memberships.workspaceId))
+    .where(eq(t.memberships.userId, userId))
+    .orderBy(asc(t.workspaces.name))
 }

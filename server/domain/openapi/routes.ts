@@ -123,7 +123,7 @@ export const API_ROUTES: ApiRoute[] = [
   { method: 'get', path: `${ws}/studies`, summary: 'Studies with their newest result per set', tag: 'studies', ...W('viewer') },
   { method: 'post', path: `${ws}/studies`, summary: 'Create a study', tag: 'studies', ...W('analyst'), body: 'studyCreateSchema', status: 201 },
   { method: 'post', path: `${ws}/studies/validate`, summary: 'Check a draft study without saving it', tag: 'studies', ...W('viewer'), body: 'studyDraftSchema' },
-  { method: 'get', path: `${ws}/studies/{id}`, summary: 'One study with its result versions and measurements', tag: 'studies', ...W('viewer') },
+  { method: 'get', path: `${ws}/studies/{id}`, summary: 'One study with its result versions, measurements and the sets they name', tag: 'studies', ...W('viewer') },
   { method: 'patch', path: `${ws}/studies/{id}`, summary: 'Save edits to a study', tag: 'studies', ...W('analyst'), body: 'studyPatchSchema' },
   { method: 'delete', path: `${ws}/studies/{id}`, summary: 'Delete a study and its results', tag: 'studies', ...W('owner') },
   { method: 'post', path: `${ws}/studies/{id}/run`, summary: 'Run a study on its sets: one queued result per set', tag: 'studies', ...W('analyst'), body: 'runRequestSchema', status: 202 },

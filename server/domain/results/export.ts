@@ -75,7 +75,7 @@ export function exportObservable(spec: StudySpec): ExportObservable {
 }
 
 /** The provenance block of every export of result `r`. */
-export async function exportProvenance(db: DB, r: Result, study: Study, header: SetHeader, prescription: Prescription, clPercent: number, exportedBy: string): Promise<ExportProvenance> {
+export async function exportProvenance(db: DB, r: Result, study: Pick<Study, 'id' | 'name'>, header: SetHeader, prescription: Prescription, clPercent: number, exportedBy: string): Promise<ExportProvenance> {
   const snap = r.specSnapshot
   const spec = snap.spec
   const def = kernelDefinition(spec.kernel)

@@ -1,4 +1,4 @@
-import { and, desc, eq, inArray } from 'drizzle-orm'
+import { and, asc, desc, eq, getTableColumns, inArray } from 'drizzle-orm'
 import type { DB } from '../../database/client'
 import { tables as t } from '../../database/client'
 import type { Result, Study } from '../../database/schema'
@@ -26,10 +26,17 @@ function safeUnit(spec: StudySpec) {
   }
 }
 
+/**
+ * Columns of results without the spec snapshot (the study's bins as run, megabytes for a large
+ * study): what lists of versions need. A version's own route reads the snapshot.
+ */
+const { specSnapshot: _snapshot, ...resultListColumns } = getTableColumns(t.results)
+export type ResultListRow = Omit<Result, 'specSnapshot'>
+
 /** What the API shows of a result version (no member values). */
-export const publicResult = (r: Result) => ({
+export const publicResult = (r: ResultListRow) => ({
   id: r.id, studyId: r.studyId, setId: r.setId, secondSetId: r.secondSetId, version: r.version,
-  studyRevision: r.studyRevision, state: r.state,
+  studyRevision: r.studyRevision, state: r.state, phase: r.phase,
   progress: { done: r.membersDone, total: r.membersTotal },
   binCount: r.binCount, error: r.error, cancelRequested: r.cancelRequested,
   reviewState: r.reviewState, frozen: r.reviewState === 'approved', engineVersion: r.engineVersion,
@@ -84,7 +91,7 @@ export function reachError(problems: ReachProblem[]) {
 /** The newest version of each (study, set) result, for lists and comparisons. */
 export async function latestResults(db: DB, studyIds: readonly string[]) {
   if (studyIds.length === 0) return []
-  const rows = await db.select().from(t.results)
+  const rows = await db.select(resultListColumns).from(t.results)
     .where(inArray(t.results.studyId, [...studyIds]))
     .orderBy(desc(t.results.version))
   const seen = new Set<string>()
@@ -94,6 +101,26 @@ export async function latestResults(db: DB, studyIds: readonly string[]) {
     seen.add(key)
     return true
   })
+}
+
+/**
+ * One study's page data in three queries: every result version, newest first (without
+ * snapshots), and its measurements together, then the name, version, kind and member count of
+ * each set the study or one of its versions names (the page's first paint needs no more of the
+ * workspace's library).
+ */
+export async function studyDetail(db: DB, study: Study) {
+  const [results, measurements] = await Promise.all([
+    db.select(resultListColumns).from(t.results).where(eq(t.results.studyId, study.id)).orderBy(desc(t.results.version), asc(t.results.createdAt)),
+    db.select({ id: t.measurements.id, name: t.measurements.name, pointCount: t.measurements.pointCount, createdAt: t.measurements.createdAt })
+      .from(t.measurements).where(eq(t.measurements.studyId, study.id)).orderBy(desc(t.measurements.createdAt))
+  ])
+  const setIds = [...new Set([...study.setIds, ...(study.secondSetId ? [study.secondSetId] : []), ...results.flatMap(r => (r.secondSetId ? [r.setId, r.secondSetId] : [r.setId]))])]
+  const sets = setIds.length
+    ? await db.select({ id: t.errorSets.id, name: t.errorSets.name, version: t.errorSets.version, kind: t.errorSets.kind, memberCount: t.errorSets.memberCount })
+      .from(t.errorSets).where(and(eq(t.errorSets.workspaceId, study.workspaceId), inArray(t.errorSets.id, setIds)))
+    : []
+  return { ...publicStudy(study), results: results.map(publicResult), measurements, sets }
 }
 
 /** The newest finished version of a study's result on each of `setIds`. */
