@@ -237,9 +237,11 @@ describe('demo seed', () => {
         const values = bytesToFloat64(stored!.values)
         const roles = pairRoles(await loadErrorSet(db, setId), second)
         const context = kernelContextOf(roles.main.header as SetHeader)
-        // Every member where the main set varies; the central pairing where the nuclear set does.
+        // Every member where the main set varies (with the second set's member of the same index
+        // when the run paired them, else its central member); the central pairing where the nuclear set does.
+        const paired = r!.specSnapshot.second?.variation === 'paired'
         const direct = roles.varyingRole === 'main'
-          ? evaluateDirect(spec, roles.main, { ...context, ...(roles.second ? { second: { ...roles.second, members: [roles.second.members[0]!] } } : {}) })
+          ? evaluateDirect(spec, roles.main, { ...context, ...(roles.second ? { second: { ...roles.second, members: paired ? roles.second.members : [roles.second.members[0]!] } } : {}) })
           : evaluateDirect(spec, { ...roles.main, members: [roles.main.members[0]!] }, { ...context, second: { ...roles.second!, members: [roles.second!.members[0]!] } })
         expect(direct.length).toBeLessThanOrEqual(values.length)
         direct.forEach((d, i) => expect(close(values[i]!, d, 1e-9), `${study.name} value ${i}`).toBe(true))
