@@ -1,6 +1,6 @@
 import { writeCsv } from './csv'
 import { provenanceLines, provenanceObject } from './provenance'
-import { RESULT_CAUTION, resultCaution } from './caution'
+import { RESULT_CAUTION, cautionOfKernel } from './caution'
 import type { LabelledBand, ResultForExport } from './types'
 
 const BAND_PARTS = ['central', 'plus', 'minus', 'relPlus', 'relMinus'] as const
@@ -74,7 +74,7 @@ export function bandsToJson(result: ResultForExport) {
     format: 'sheaf-bands',
     formatVersion: 1,
     provenance: provenanceObject(result.provenance),
-    ...bandsJsonBody(result, resultCaution(Boolean(result.provenance.kFactors)))
+    ...bandsJsonBody(result, cautionOfKernel(Boolean(result.provenance.kFactors), result.provenance.kernel.id, result.provenance.secondSet?.variation))
   }
 }
 

@@ -1,5 +1,5 @@
 import { columnHeader } from '../bins/grid'
-import { resultCautionShort } from './caution'
+import { resultCautionShort, varyingDensities, type VaryingDensities } from './caution'
 import { checkResult } from './bands'
 import { roundMeasurement } from './numbers'
 import type { RoundingOptions } from './numbers'
@@ -133,6 +133,8 @@ export interface LatexTableInput {
   caption: string[]
   /** Whether K-factors scaled the values (the caution then says they are the user's responsibility). */
   kFactors?: boolean
+  /** Whose uncertainty the bands are (the caution names it); parton densities when absent. */
+  varies?: VaryingDensities
 }
 
 /**
@@ -166,7 +168,7 @@ export function latexTable(input: LatexTableInput, options: Pick<LatexTableOptio
     ? [`${obs}: ${latexText(input.columns[0]!.key)}.`]
     : [`Columns ${input.columns.map((c, i) => `${keyLetter(i)} ${latexText(c.key)}`).join('; ')}.`]
   const rounding = 'Values rounded by the Particle Data Group\'s rule (Review of Particle Physics, Introduction).'
-  const caption = [...key, ...input.caption, rounding, latexText(resultCautionShort(Boolean(input.kFactors)))].join(' ')
+  const caption = [...key, ...input.caption, rounding, latexText(resultCautionShort(Boolean(input.kFactors), input.varies))].join(' ')
   const spec = `${'c'.repeat(kinematic.length)}${'r'.repeat(input.columns.length)}`
   const long = input.bins.length > (options.longAfter ?? 30)
   const label = options.label ? `\\label{${options.label}}` : ''
@@ -236,9 +238,10 @@ export function bandsToLatex(result: ResultForExport, options: LatexTableOptions
     bins: result.bins,
     columns: bands.map(b => ({ key: b.label, band: b.band })),
     kFactors: Boolean(p.kFactors),
+    varies: varyingDensities(p.kernel.id, p.secondSet?.variation),
     caption: [
       ...(options.caption ? [options.caption] : []),
-      `PDF set ${latexText(setText(p))}; ${latexText(confidenceText(p))}.`,
+      `Set ${latexText(setText(p))}; ${latexText(confidenceText(p))}.`,
       ...(p.secondSet ? [`Second set ${latexText(secondSetText(p.secondSet))}.`] : []),
       `Result version ${p.resultVersion}, ${latexText(approvalText(p))}.`
     ]

@@ -1,4 +1,4 @@
-import { resultCaution } from './caution'
+import { cautionOfKernel } from './caution'
 import { variationText } from '../physics/uncertainty/two-sets'
 import type { ExportKFactors, ExportObservable, ExportProvenance, ExportSecondSet } from './types'
 
@@ -62,7 +62,7 @@ export function provenanceLines(p: ExportProvenance, observable: ExportObservabl
     `run by: ${p.ranBy} at ${isoTime(p.ranAt)}`,
     `result version: ${p.resultVersion}; ${approvalText(p)}`,
     ...(p.exportedAt || p.exportedBy ? [`exported${p.exportedBy ? ` by ${p.exportedBy}` : ''}${p.exportedAt ? ` at ${isoTime(p.exportedAt)}` : ''}`] : []),
-    `caution: ${resultCaution(Boolean(p.kFactors))}`
+    `caution: ${cautionOfKernel(Boolean(p.kFactors), p.kernel.id, p.secondSet?.variation)}`
   ]
 }
 

@@ -5,7 +5,7 @@
  */
 import type { BandView } from '../physics/uncertainty/band'
 import { bandsCsvRecords, bandsJsonBody, checkResult, csvColumnNotes } from './bands'
-import { resultCaution } from './caution'
+import { cautionOfKernel, varyingDensities } from './caution'
 import { latexTable, latexText, type LatexTableOptions } from './latex'
 import { variationText } from '../physics/uncertainty/two-sets'
 import { approvalText, confidenceText, isoTime, kFactorText, provenanceObject, secondSetText, setText } from './provenance'
@@ -40,6 +40,12 @@ function asTable(s: StudyForExport): Omit<ResultForExport, 'provenance'> {
   return table
 }
 
+/** The caution of a study's table: that of its first set's result (they share kernel and bins). */
+function studyCaution(s: StudyForExport): string {
+  const p = s.sets[0]!.provenance
+  return cautionOfKernel(withKFactors(s), p.kernel.id, p.secondSet?.variation)
+}
+
 /** The comment lines above a study's table: study, observable, kernel, each set, caution. */
 export function studyProvenanceLines(s: StudyForExport, what: string): string[] {
   const p = s.sets[0]!.provenance
@@ -51,7 +57,7 @@ export function studyProvenanceLines(s: StudyForExport, what: string): string[] 
     `kernel: ${p.kernel.id}${p.kernel.label ? ` (${p.kernel.label})` : ''}; constants: ${constants}`,
     ...s.sets.map(x => `set ${x.id}: ${setLine(x.provenance)}`),
     ...(s.exportedAt || s.exportedBy ? [`exported${s.exportedBy ? ` by ${s.exportedBy}` : ''}${s.exportedAt ? ` at ${isoTime(s.exportedAt)}` : ''}`] : []),
-    `caution: ${resultCaution(withKFactors(s))}`
+    `caution: ${studyCaution(s)}`
   ]
 }
 
@@ -71,7 +77,7 @@ export function studyToJson(s: StudyForExport) {
     sets: s.sets.map(x => ({ id: x.id, provenance: provenanceObject(x.provenance) })),
     ...(s.exportedBy ? { exportedBy: s.exportedBy } : {}),
     ...(s.exportedAt ? { exportedAt: isoTime(s.exportedAt) } : {}),
-    ...bandsJsonBody(table, resultCaution(withKFactors(s)))
+    ...bandsJsonBody(table, studyCaution(s))
   }
 }
 
@@ -89,6 +95,7 @@ export function studyToLatex(s: StudyForExport, options: Pick<LatexTableOptions,
     bins: s.bins,
     columns: table.bands.map(b => ({ key: b.label, band: b.band })),
     kFactors: withKFactors(s),
+    varies: varyingDensities(s.sets[0]!.provenance.kernel.id, s.sets[0]!.provenance.secondSet?.variation),
     caption: [
       ...(options.caption ? [options.caption] : []),
       `Study ${latexText(s.study.name)}; ${latexText(cls.join('; '))}.`,

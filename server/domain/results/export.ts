@@ -12,6 +12,7 @@ import { BIN_COLUMNS, type StudySpec } from '../../../shared/physics/study/spec'
 import type { SetHeader } from '../../../shared/physics/types'
 import type { Prescription } from '../../../shared/physics/uncertainty/bands'
 import { PRESCRIPTION_LABELS } from '../../../shared/utils/prescriptions'
+import { slotsOf } from '../../../shared/utils/set-match'
 import { studyObservable } from '../../../shared/bins/observable'
 import type { StudyForExport } from '../../../shared/export/study'
 import { fail } from '../errors'
@@ -140,7 +141,8 @@ export function resultForExport(
   provenance: ExportProvenance, spec: StudySpec, prescription: Prescription, bands: StoredBands,
   scale: ScaleVariationJson | null
 ): ResultForExport {
-  const pdfLabel = `PDF, ${PRESCRIPTION_LABELS[prescription]}`
+  // The band's first word says whose members vary in it: PDF, or fragmentation functions (FF).
+  const pdfLabel = `${slotsOf(spec.kernel).main === 'fragmentation' ? 'FF' : 'PDF'}, ${PRESCRIPTION_LABELS[prescription]}`
   const exportBands: LabelledBand[] = twoSetBands(provenance, prescription, bands, pdfLabel)
   exportBands.push(...kFactorExportBands(kFactorView(spec, bands, bands.clPercent), bands, pdfLabel))
   if (scale) {

@@ -1,9 +1,8 @@
 // Studies with fragmentation functions through the API: which set slot takes which density
 // (located 400s naming setIds[i] / secondSetId), a semi-inclusive multiplicity run on the queue
 // with the fragmentation set as second set, and the hadron demo studies of the seed on TOY sets.
-// The TOY sets are parton-density shapes written by the engine (not fits, not fragmentation
-// functions); the fragmentation ones are marked so in their stored header, as the upload of a
-// set file that says its density records it.
+// The TOY sets are invented shapes written by the engine (not fits); the fragmentation ones are
+// set files whose header says they hold fragmentation functions into one hadron.
 import { eq } from 'drizzle-orm'
 import { beforeAll, describe, expect, it } from 'vitest'
 import { testDB, tables as t } from '../../support/db'
@@ -24,12 +23,9 @@ let kaon: string
 const api = () => `/api/workspaces/${ws.id}`
 const db = testDB()
 
-/** Uploads a TOY set and records in its header that it holds fragmentation functions into `hadron`. */
+/** Uploads a TOY set file of fragmentation functions into `hadron`. */
 async function fragmentationSet(name: string, hadron: HadronSpecies) {
-  const id = (await uploadSet(ws.analyst.client, ws.id, toySetBytes({ name, errorMembers: 2 }).bytes)).id
-  const [row] = await db.select({ header: t.errorSets.header }).from(t.errorSets).where(eq(t.errorSets.id, id))
-  await db.update(t.errorSets).set({ header: { ...row!.header, density: { type: 'fragmentation', hadron } } }).where(eq(t.errorSets.id, id))
-  return id
+  return (await uploadSet(ws.analyst.client, ws.id, toySetBytes({ name, errorMembers: 2, density: { type: 'fragmentation', hadron } }).bytes)).id
 }
 
 beforeAll(async () => {
@@ -66,7 +62,7 @@ describe('which set slot takes which density', () => {
     expect(count).toBeUndefined()
   })
 
-  it('runs a multiplicity on the queue: parton members vary, the fragmentation set is held at its central member', async () => {
+  it('runs a multiplicity on the queue: the parton members vary with the fragmentation set central, then the fragmentation members with the parton set central', async () => {
     const created = await ws.analyst.client.post(`${api()}/studies`, { name: 'π⁺ on D', spec: sidis, setIds: [pdf], secondSetId: pion })
     expect(created.status, JSON.stringify(created.body)).toBe(201)
     expect(created.body).toMatchObject({ unit: '1', secondSetId: pion })
@@ -79,9 +75,13 @@ describe('which set slot takes which density', () => {
     // The same study evaluated directly (no plan) on the stored sets: the worker's plumbing, not physics.
     const main = await loadErrorSet(db, pdf)
     const second = await loadErrorSet(db, pion)
-    const direct = evaluateDirect(parseStudySpec(sidis), main, { ...kernelContextOf(main.header), second: { ...second, members: [second.members[0]!] } })
+    const spec = parseStudySpec(sidis)
+    const partonPart = evaluateDirect(spec, main, { ...kernelContextOf(main.header), second: { ...second, members: [second.members[0]!] } })
+    // The fragmentation part: its error members (member 0 is the central pairing above).
+    const fragmentationPart = evaluateDirect(spec, { ...main, members: [main.members[0]!] }, { ...kernelContextOf(main.header), second: { ...second, members: second.members.slice(1) } })
+    const direct = [...partonPart, ...fragmentationPart]
     expect(values.length).toBe(direct.length)
-    values.forEach((v, i) => expect(Math.abs(v - direct[i]!)).toBeLessThanOrEqual(1e-10 * Math.abs(direct[i]!)))
+    values.forEach((v, i) => expect(Math.abs(v - direct[i]!), `value ${i}`).toBeLessThanOrEqual(1e-10 * Math.abs(direct[i]!)))
     const csv = await ws.viewer.client.get(`${api()}/results/${result!.id}/export?format=csv`)
     expect(csv.status).toBe(200)
     expect(String(csv.body)).toContain('M^h')

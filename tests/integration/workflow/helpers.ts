@@ -4,15 +4,17 @@ import type { ApiClient, ApiResponse } from '../../support/http'
 import { toyErrorSet, toyQ2Nodes, toyXNodes } from '../../../shared/physics/sets/toy'
 import { writeSetFile } from '../../../shared/physics/sets/write'
 import type { SetKind } from '../../../shared/physics/types'
+import type { SetDensity } from '../../../shared/physics/fragmentation/species'
 
 export const TOY_SCHEME = { type: 'variable', nf: 5, massesGeV: { charm: 1.5, bottom: 4.75, top: 173 } } as const
 
 /** A TOY error set (engine-generated, not a fit) as set-file bytes. */
-export function toySetBytes(o: { kind?: SetKind, errorMembers?: number, name?: string, nx?: number, nq?: number, q2MaxGeV2?: number } = {}) {
+export function toySetBytes(o: { kind?: SetKind, errorMembers?: number, name?: string, nx?: number, nq?: number, q2MaxGeV2?: number, density?: SetDensity } = {}) {
   const set = toyErrorSet({
     kind: o.kind ?? 'hessian-pairs',
     errorMembers: o.errorMembers ?? 4,
     name: o.name,
+    density: o.density,
     x: toyXNodes(o.nx ?? 40, 1e-5, 0.95),
     q2: toyQ2Nodes({ q2MinGeV2: 2, q2MaxGeV2: o.q2MaxGeV2 ?? 1e5, count: o.nq ?? 16, thresholdsGeV2: [1.5 ** 2, 4.75 ** 2] }),
     scheme: { ...TOY_SCHEME, massesGeV: { ...TOY_SCHEME.massesGeV } }

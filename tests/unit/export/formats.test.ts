@@ -84,7 +84,7 @@ describe('LaTeX', () => {
     expect(tex).toContain('\\bottomrule')
     const caption = lines.find(l => l.startsWith('  \\caption{'))!
     expect(caption).toContain('$\\mathrm{d}\\sigma/\\mathrm{d}M$: Hessian, asymmetric.')
-    expect(caption).toContain('PDF set Bramble-H version 1.2 (hessian-pairs, family Bramble); 68\\% CL (set published at 90\\% CL, rescaled).')
+    expect(caption).toContain('Set Bramble-H version 1.2 (hessian-pairs, family Bramble); 68\\% CL (set published at 90\\% CL, rescaled).')
     expect(caption).toContain('Result version 3, approved by owner@example.org')
     expect(caption).toContain('PDF uncertainty only, not the full theory uncertainty.')
     expect(lines).toContain('  \\label{tab:dy}')

@@ -1,4 +1,4 @@
-import { resultCaution } from '../../../../../shared/export/caution'
+import { cautionOfKernel } from '../../../../../shared/export/caution'
 import { prescriptionsFor } from '../../../../../shared/physics/uncertainty/bands'
 import { loadResultScale, reportingChoice, resultBands, resultSetHeader, resultTrail, userNames } from '../../../../domain/results/results'
 import { bandsPage, binPage, scalePage, specPage } from '../../../../domain/results/page'
@@ -47,6 +47,6 @@ export default defineEventHandler(async (event) => {
     scaleVariation: scale,
     kFactors,
     trail,
-    caution: resultCaution(Boolean(snapshot.spec.kFactors))
+    caution: cautionOfKernel(Boolean(snapshot.spec.kFactors), snapshot.spec.kernel, snapshot.second?.variation ?? (snapshot.second ? 'central' : undefined))
   }
 })
