@@ -11,7 +11,9 @@
  *   - edit: Enter in a cell editor → the cell shows the new value (median and worst of 7);
  *   - undo: click on Undo → the cell shows the old value (median and worst of 5);
  *   - add row: click on "Add bin" → the count and the grid show one more bin (median and worst of 5);
- *   - scroll: one step of 3 rows of the grid's scroller → the next painted frame (60 steps).
+ *   - scroll: one step of 3 rows of the grid's scroller → the first painted frame in which the
+ *     drawn rows cover the scroller's visible band (60 steps; a frame that shows blank space where
+ *     rows belong does not count).
  * Targets: edit ≤ 50 ms, undo and add row ≤ 100 ms, scroll ≤ 16 ms median and ≤ 50 ms worst,
  * page usable ≤ 1 s. Prints each figure beside its target; exits 1 when one is missed.
  */
@@ -153,12 +155,24 @@ async function benchStudy(page: Page, url: string, n: number) {
       channel.port1.onmessage = () => resolve(performance.now())
       channel.port2.postMessage(null)
     }))
+    // The rows in view are drawn when the master table's drawn rows cover the scroller's visible
+    // band below the column header (read after the frame, so it forces no extra layout in it).
+    const rowsInView = () => {
+      const view = holder.getBoundingClientRect()
+      const top = view.top + (holder.querySelector('thead')?.getBoundingClientRect().height ?? 0)
+      const bottom = view.top + holder.clientHeight
+      const drawn = holder.querySelectorAll('tbody tr')
+      if (!drawn.length) return false
+      return drawn[0]!.getBoundingClientRect().top <= top + 0.5 && drawn[drawn.length - 1]!.getBoundingClientRect().bottom >= bottom - 0.5
+    }
     await frame()
     const times: number[] = []
     for (let k = 0; k < 60; k++) {
       const t0 = performance.now()
       holder.scrollTop += 87
-      times.push((await frame()) - t0)
+      let t = await frame()
+      for (let wait = 0; wait < 120 && !rowsInView(); wait++) t = await frame()
+      times.push(t - t0)
     }
     return times
   })

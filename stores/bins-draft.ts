@@ -219,7 +219,9 @@ export const useBinsDraftStore = defineStore('bins-draft', () => {
   const allChecks = computed(() => [...rowChecks.value, ...extraChecks.value])
 
   return {
-    studyId, columns, rows, savedRows, extraChecks: skipHydrate(extraChecks), rowChecks: skipHydrate(rowChecks), allChecks: skipHydrate(allChecks), undoStack: skipHydrate(undoStack), redoStack: skipHydrate(redoStack),
+    // Not sent with a server-rendered page: the grid is drawn on the client only, and 10,000 rows
+    // in the page's payload cost more to send and revive than to build from the study again.
+    studyId: skipHydrate(studyId), columns: skipHydrate(columns), rows: skipHydrate(rows), savedRows: skipHydrate(savedRows), extraChecks: skipHydrate(extraChecks), rowChecks: skipHydrate(rowChecks), allChecks: skipHydrate(allChecks), undoStack: skipHydrate(undoStack), redoStack: skipHydrate(redoStack),
     errors, cellErrors, invalidRowCount, dirty, canUndo, canRedo,
     load, replace, updateCells, updateCell, insertRows, removeRows, moveRows, resetToSaved, markSaved, setExtraChecks, setRowChecks, undo, redo
   }
