@@ -16,7 +16,8 @@ import type { JobPhase } from '#shared/queue/workflow'
 /** How a variable is given in the bins: one value per bin, a range, or (loaded data) both. */
 export type VariableLayout = 'point' | 'range' | 'mixed'
 
-const NAMES: Record<VariableName, { label: string, unit?: string }> = {
+/** Label and unit of each bin variable, as axes, legends and keys write them. */
+export const VARIABLE_NAMES: Readonly<Record<VariableName, { label: string, unit?: string }>> = {
   x: { label: 'x' }, q2: { label: 'Q²', unit: 'GeV²' }, y: { label: 'y' }, m: { label: 'M', unit: 'GeV' },
   z: { label: 'z' }, sqrtS: { label: '√s', unit: 'GeV' }
 }
@@ -53,7 +54,7 @@ const isKColumn = (key: string) => key === 'kFactor' || key === 'kFactorError'
 export function gridColumns(variables: readonly VariableSpec[], layouts: Record<string, VariableLayout>, kFactors: KFactorColumns = 'none'): BinColumn[] {
   const columns: BinColumn[] = []
   for (const v of variables) {
-    const { label, unit } = NAMES[v.name]
+    const { label, unit } = VARIABLE_NAMES[v.name]
     const layout = layouts[v.name] ?? defaultLayout(v)
     const required = layout !== 'mixed'
     if (layout !== 'range') columns.push({ key: v.name, label, unit, kind: 'number', required, quantity: label })
@@ -255,7 +256,7 @@ const READING_ORDER: readonly VariableName[] = ['sqrtS', 'x', 'z', 'q2', 'm', 'y
 export function binText(bin: SpecBin | undefined): string {
   if (!bin) return ''
   const parts = READING_ORDER.flatMap((n) => {
-    const { label, unit } = NAMES[n]
+    const { label, unit } = VARIABLE_NAMES[n]
     const lo = bin[`${n}Min`]
     const hi = bin[`${n}Max`]
     const value = bin[n] !== undefined ? String(bin[n]) : lo !== undefined && hi !== undefined ? `${lo}–${hi}` : null

@@ -131,6 +131,18 @@ function singleObservable(def: KernelDefinition, options: Record<string, unknown
   return { name, latex, unit }
 }
 
+/** What a DIS nuclear ratio divides by, in the words of its name. */
+const DIS_RATIO_DENOMINATORS: Readonly<Record<string, string>> = { proton: 'p', isospin: '(Z p + N n)/A', isoscalar: '½(p + n)', deuteron: 'D' }
+
+/**
+ * The name of a DIS nuclear ratio: the structure function's ratio per nucleon, nucleus over its
+ * reference, e.g. "F₂ ratio per nucleon, A over ½(p + n)".
+ */
+function disNuclearRatioName(quantity: string, options: Record<string, unknown>): string {
+  const denominator = typeof options.denominator === 'string' ? options.denominator : 'proton'
+  return `${quantity} ratio per nucleon, A over ${DIS_RATIO_DENOMINATORS[denominator] ?? denominator}`
+}
+
 /** The observable of bin `row` of the spec (0-based `index` only for messages). */
 export function binObservable(spec: ObservableSpec, row: ObservableSpec['bins'][number]): Observable {
   const def = kernelDefinition(spec.kernel)
@@ -146,6 +158,7 @@ export function binObservable(spec: ObservableSpec, row: ObservableSpec['bins'][
   const [part] = def.parts(options)
   const inner = kernelDefinition(part.kernel) as KernelDefinition
   const innerObs = singleObservable(inner, part.options, layout, mode)
+  if (def.id === 'nuclear-ratio' && part.kernel.startsWith('dis-')) return { name: disNuclearRatioName(innerObs.name, options), latex: '', unit: null }
   const name = def.title.includes(inner.quantity) ? def.title.replace(inner.quantity, innerObs.name) : def.title
   return { name, latex: '', unit: null }
 }

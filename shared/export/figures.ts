@@ -283,6 +283,18 @@ const SYMBOLS = ['circle', 'square', 'diamond', 'triangle-up', 'cross', 'x']
 const subset = <T>(a: ArrayLike<T>, idx: readonly number[]): T[] => idx.map(i => a[i]!)
 
 /**
+ * The spread for points drawn side by side at one x: a third of the narrowest gap between distinct
+ * x values (in ln x on a log axis); 0 with fewer than two distinct values.
+ * @example pointDodgeStep([1, 2, 4], false) // 1/3
+ */
+export function pointDodgeStep(xs: ArrayLike<number>, log: boolean): number {
+  const values = [...new Set(Array.from(xs, v => (log && v > 0 ? Math.log(v) : v)).filter(Number.isFinite))].sort((a, b) => a - b)
+  let gap = Infinity
+  for (let i = 1; i < values.length; i++) gap = Math.min(gap, values[i]! - values[i - 1]!)
+  return Number.isFinite(gap) ? gap / 3 : 0
+}
+
+/**
  * Observable against one kinematic variable: each series as a filled band (or error bars),
  * optionally a ratio panel to a reference series (each series' band divided by the reference
  * central value, common practice for comparing sets) and an envelope drawn hatched and dashed.
@@ -314,10 +326,17 @@ export function bandFigure(input: BandFigureInput): Figure {
       const divisor = subset(reference.band.central, idx)
       panels.push({ axes: { xaxis: 'x2', yaxis: 'y2' }, scale: (i, v) => (divisor[i] ? v / divisor[i]! : null) })
     }
+    // Points at one x (no range to spread over) are set side by side, within a third of the
+    // narrowest gap between distinct x values, so that no series hides another's error bars.
+    const dodgeStep = pointDodgeStep(positions.lo, Boolean(input.variable.log))
     const positionOf = (i: number, k: number, count: number) => {
       const lo = positions.lo[i]!
       const hi = positions.hi?.[i]
-      if (hi === undefined) return lo
+      if (hi === undefined) {
+        if (count < 2 || dodgeStep === 0) return lo
+        const shift = dodgeStep * (k - (count - 1) / 2) / (count - 1)
+        return input.variable.log && lo > 0 ? lo * Math.exp(shift) : lo + shift
+      }
       const t = (k + 1) / (count + 1)
       return input.variable.log && lo > 0 ? lo * (hi / lo) ** t : lo + (hi - lo) * t
     }

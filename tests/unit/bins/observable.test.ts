@@ -17,6 +17,12 @@ describe('the observable from the bin layout', () => {
     const o = studyObservable(dy([{ m: 200, yMin: -2.5, yMax: 2.5 }, { m: 300, yMin: -2.5, yMax: 2.5 }]))
     expect(o).toEqual({ name: 'dσ/dM', latex: '\\mathrm{d}\\sigma/\\mathrm{d}M', unit: 'pb/GeV' })
   })
+  it('names a DIS nuclear ratio by its structure function and what it divides by, and keeps the collider title otherwise', () => {
+    const ratio = (options: Record<string, unknown>) => parseStudySpec({ kernel: 'nuclear-ratio', options: { nucleus: { z: 6, a: 12 }, ...options }, bins: [{ x: 0.1, q2: 10 }] })
+    expect(studyObservable(ratio({ base: 'dis-nc-f2', denominator: 'isoscalar' }))).toEqual({ name: 'F₂ ratio per nucleon, A over ½(p + n)', latex: '', unit: null })
+    expect(studyObservable(ratio({ base: 'dis-nc-f2', denominator: 'deuteron' })).name).toBe('F₂ ratio per nucleon, A over D')
+    expect(studyObservable(ratio({ base: 'dis-nc-f2' })).name).toBe('F₂ ratio per nucleon, A over p')
+  })
   it('keeps both derivatives at points', () => {
     expect(studyObservable(dy([{ m: 200, y: 0 }]))).toMatchObject({ name: 'd²σ/dM dy', unit: 'pb/GeV' })
   })

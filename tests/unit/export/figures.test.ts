@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest'
-import { CORRELATION_SCALE, bandFigure, correlationFigure, eigenvectorFigure, houseConfig, withAlpha } from '#shared/export/figures'
+import { CORRELATION_SCALE, bandFigure, correlationFigure, eigenvectorFigure, houseConfig, pointDodgeStep, withAlpha } from '#shared/export/figures'
 import { makeBands } from '#shared/physics/uncertainty/band'
 
 const series = (id: string, central: number[], rel = 0.1) => ({ id, label: id.toUpperCase(), band: makeBands(central, central.map(c => c * rel), central.map(c => c * rel / 2)) })
@@ -78,5 +78,13 @@ describe('house style', () => {
     expect(houseConfig('f')).toMatchObject({ displaylogo: false, toImageButtonOptions: { filename: 'f' } })
     expect(withAlpha('#2f6f94', 0.25)).toBe('rgba(47, 111, 148, 0.25)')
     expect(() => withAlpha('tide', 1)).toThrow(RangeError)
+  })
+})
+
+describe('points at one x', () => {
+  it('are set side by side within a third of the narrowest gap, on linear and log axes', () => {
+    expect(pointDodgeStep([1, 2, 4, 4], false)).toBeCloseTo(1 / 3, 15)
+    expect(pointDodgeStep([0.01, 0.1, 1], true)).toBeCloseTo(Math.log(10) / 3, 12)
+    expect(pointDodgeStep([5, 5], false)).toBe(0)
   })
 })
