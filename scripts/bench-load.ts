@@ -89,8 +89,10 @@ async function main() {
   const { workspaces } = must(await call<{ workspaces: Array<{ id: string, name: string }> }>('GET', '/api/workspaces'), 'workspaces', 200)
   const wid = workspaces[0]!.id
   cookie += `; sheaf_workspace=${wid}`
-  const { sets } = must(await call<{ sets: Array<{ id: string, name: string, kind: string, memberCount: number, xMin: number, xMax: number, q2MinGeV2: number, q2MaxGeV2: number }> }>('GET', `/api/workspaces/${wid}/sets`), 'sets', 200)
-  const set = sets.filter(s => s.kind === 'hessian-pairs').sort((a, b) => a.memberCount - b.memberCount)[0] ?? sets[0]!
+  const { sets } = must(await call<{ sets: Array<{ id: string, name: string, kind: string, memberCount: number, xMin: number, xMax: number, q2MinGeV2: number, q2MaxGeV2: number, density?: { type: string } }> }>('GET', `/api/workspaces/${wid}/sets`), 'sets', 200)
+  // The smallest Hessian set of parton densities (F₂ reads no fragmentation set).
+  const partons = sets.filter(s => s.density?.type !== 'fragmentation')
+  const set = partons.filter(s => s.kind === 'hessian-pairs').sort((a, b) => a.memberCount - b.memberCount)[0] ?? partons[0]!
 
   // ── 1. The Run route on a large study
   const { studies } = must(await call<{ studies: Array<{ id: string, name: string, binCount: number }> }>('GET', `/api/workspaces/${wid}/studies`), 'studies', 200)
