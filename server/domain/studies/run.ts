@@ -20,7 +20,7 @@ import { applyKFactors, applyKFactorsToRows } from '../../../shared/physics/impa
 import type { ErrorSet, SetHeader } from '../../../shared/physics/types'
 import { splitApart } from '../../../shared/physics/uncertainty/two-sets'
 import type { MemberValues } from '../../../shared/physics/uncertainty'
-import { prescriptionsFor } from '../../../shared/physics/uncertainty/bands'
+import { prescriptionsFor, type Prescription } from '../../../shared/physics/uncertainty/bands'
 import { ENGINE_VERSION } from '../../../shared/physics/version'
 import type { JobPhase, JobProgress } from '../../../shared/queue/workflow'
 import { type CancelWatch, isCancel, JobCancelled, ONLY_ATTEMPT, runQueuedWork, watchCancel } from '../jobs/lifecycle'
@@ -193,34 +193,33 @@ export async function combineRun(spec: StudySpec, set: ErrorSet, roles: { main: 
   const source = memberSourceOf(set.header)
   const main = roles?.main ?? set
   const second = roles?.second ?? null
-  let bands: StoredBands[]
-  let scale: ScaleVariationJson | null
+  const bandsOf = prescriptionBands(matrix, source, clPercent, o)
+  const pending = prescriptionsFor(set.header.kind).map(bandsOf)
+  // On the pool the scale variation runs beside the bands; inline it follows them.
+  const scaleNow = o.pool ? o.scale ?? scaleOnPool(spec, main, second, o.signal) : null
+  const bands = await Promise.all(pending)
+  const scale = scaleNow ? await scaleNow : o.scale ? await o.scale : scaleVariationOf(spec, main, second)
+  return { members: matrix.members, bins: matrix.bins, values: matrix.values, scale: scaleWithKFactors(spec, scale), bands }
+}
+
+/**
+ * How combineRun makes one prescription's stored bands: on the pool's threads or inline, and for
+ * an apart run from both parts of the matrix (the set's members, then the second set's 1…).
+ */
+function prescriptionBands(matrix: MemberValues, source: ReturnType<typeof memberSourceOf>, clPercent: number,
+  o: { pool: boolean, signal?: AbortSignal, apart?: ApartInput | null }): (p: Prescription) => StoredBands | Promise<StoredBands> {
   if (o.apart) {
     const h = o.apart.second.header
     const parts = splitApart(matrix, o.apart.setMembers, h.memberCount)
     const secondSource = { ...memberSourceOf(h), name: h.name, version: h.version }
-    if (o.pool) {
-      const secondPart = { matrix: { ...parts.second, values: shared(parts.second.values) }, source: secondSource }
-      const mainPart = { ...parts.main, values: shared(parts.main.values) }
-      const pending = prescriptionsFor(set.header.kind).map(p => bandsOnPool(mainPart, source, p, clPercent, o.signal, secondPart))
-      const scaleNow = o.scale ?? scaleOnPool(spec, main, second, o.signal)
-      bands = await Promise.all(pending)
-      scale = await scaleNow
-    } else {
-      bands = prescriptionsFor(set.header.kind).map(p => apartStoredBands(parts, { set: source, second: secondSource }, p, clPercent))
-      scale = o.scale ? await o.scale : scaleVariationOf(spec, main, second)
-    }
-  } else if (o.pool) {
-    const sharedMatrix = { ...matrix, values: shared(matrix.values) }
-    const pending = prescriptionsFor(set.header.kind).map(p => bandsOnPool(sharedMatrix, source, p, clPercent, o.signal))
-    const scaleNow = o.scale ?? scaleOnPool(spec, main, second, o.signal)
-    bands = await Promise.all(pending)
-    scale = await scaleNow
-  } else {
-    bands = prescriptionsFor(set.header.kind).map(p => storedBands(bandsFromValues(matrix, source, p, clPercent)))
-    scale = o.scale ? await o.scale : scaleVariationOf(spec, main, second)
+    if (!o.pool) return p => apartStoredBands(parts, { set: source, second: secondSource }, p, clPercent)
+    const secondPart = { matrix: { ...parts.second, values: shared(parts.second.values) }, source: secondSource }
+    const mainPart = { ...parts.main, values: shared(parts.main.values) }
+    return p => bandsOnPool(mainPart, source, p, clPercent, o.signal, secondPart)
   }
-  return { members: matrix.members, bins: matrix.bins, values: matrix.values, scale: scaleWithKFactors(spec, scale), bands }
+  if (!o.pool) return p => storedBands(bandsFromValues(matrix, source, p, clPercent))
+  const sharedMatrix = { ...matrix, values: shared(matrix.values) }
+  return p => bandsOnPool(sharedMatrix, source, p, clPercent, o.signal)
 }
 
 /** The members K-scaled by the engine when the study has K-factors; else the same matrix. */
