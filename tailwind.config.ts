@@ -1,4 +1,29 @@
 import type { Config } from 'tailwindcss'
+import plugin from 'tailwindcss/plugin'
+
+/**
+ * `space-y-*` and `divide-y` without sibling combinators. Tailwind's own versions select
+ * `:not([hidden]) ~ :not([hidden])`: a rule with a universal subject and a sibling step, which
+ * the browser tries on every element it restyles and which makes inserting any element restyle
+ * the whole subtree of every later sibling. The bins grid inserts and removes a measuring element
+ * beside its own on each draw, and that restyled all of its drawn cells twice per edit. These
+ * versions put the gap below every child but the last (so a hidden last child leaves no gap,
+ * the one difference).
+ */
+type Palette = { [name: string]: string | Palette }
+/** { ink: { DEFAULT, faint } } → { ink, 'ink-faint' }: the names colour utilities take. */
+const colorNames = (palette: Palette, prefix = ''): Record<string, string> => Object.fromEntries(Object.entries(palette).flatMap(([name, value]) => {
+  const key = name === 'DEFAULT' ? prefix.replace(/-$/, '') : `${prefix}${name}`
+  return typeof value === 'string' ? [[key, value]] : Object.entries(colorNames(value, `${key}-`))
+}))
+
+const gapsWithoutSiblingRules = plugin(({ matchUtilities, theme }) => {
+  const notLast = '& > :not(:last-child)'
+  matchUtilities({ 'space-y': value => ({ [notLast]: { 'margin-bottom': value } }) }, { values: theme('space') })
+  matchUtilities({ 'space-x': value => ({ [notLast]: { 'margin-right': value } }) }, { values: theme('space') })
+  matchUtilities({ 'divide-y': value => ({ [notLast]: { 'border-bottom-width': value } }) }, { values: theme('divideWidth') })
+  matchUtilities({ divide: value => ({ [notLast]: { 'border-color': value } }) }, { values: colorNames(theme('divideColor') as Palette), type: 'color' })
+})
 
 // Sheaf's own palette: slate-ink text on paper, a moss accent for actions, ember for warnings.
 export default {
@@ -8,6 +33,9 @@ export default {
     './layouts/**/*.vue',
     './app.vue'
   ],
+  // the --tw-* defaults only on elements whose utilities use them, not on every element
+  experimental: { optimizeUniversalDefaults: true },
+  corePlugins: { space: false, divideWidth: false, divideColor: false, divideStyle: false, divideOpacity: false },
   theme: {
     extend: {
       fontFamily: { sans: ['"Public Sans"', 'system-ui', 'sans-serif'] },
@@ -20,5 +48,5 @@ export default {
       }
     }
   },
-  plugins: []
+  plugins: [gapsWithoutSiblingRules]
 } satisfies Config

@@ -11,9 +11,9 @@
  *   - edit: Enter in a cell editor → the cell shows the new value (median and worst of 7);
  *   - undo: click on Undo → the cell shows the old value (median and worst of 5);
  *   - add row: click on "Add bin" → the count and the grid show one more bin (median and worst of 5);
- *   - scroll: one step of 3 rows of the grid's scroller → the first painted frame in which the
- *     drawn rows cover the scroller's visible band (60 steps; a frame that shows blank space where
- *     rows belong does not count).
+ *   - scroll: one step of 3 rows of the grid's scroller, taken at a random point of a frame as a
+ *     wheel step would be → the first painted frame in which the drawn rows cover the scroller's
+ *     visible band (60 steps; a frame that shows blank space where rows belong does not count).
  * Targets: edit ≤ 50 ms, undo and add row ≤ 100 ms, scroll ≤ 16 ms median and ≤ 50 ms worst,
  * page usable ≤ 1 s. Prints each figure beside its target; exits 1 when one is missed.
  */
@@ -25,6 +25,8 @@ import { createWorkspace } from '../tests/support/users'
 import { hydrated, openAs, uploadSample } from '../tests/browser/workflow/fixtures'
 
 interface Figure { name: string, value: number, target: number, unit: string }
+/** Every sample of a timed action, printed under the table so a worst case can be read in context. */
+const samples: Array<{ name: string, values: number[] }> = []
 const figures: Figure[] = []
 const median = (v: number[]) => [...v].sort((a, b) => a - b)[Math.floor(v.length / 2)]!
 const record = (name: string, value: number, target: number) => figures.push({ name, value, target, unit: 'ms' })
@@ -123,6 +125,7 @@ async function benchStudy(page: Page, url: string, n: number) {
     await page.keyboard.press('Enter')
     edits.push(await result(page))
   }
+  samples.push({ name: `${tag}: edit`, values: edits })
   record(`${tag}: edit visible (median of 7)`, median(edits), 50)
   record(`${tag}: edit visible (worst of 7)`, Math.max(...edits), 50)
 
@@ -134,6 +137,7 @@ async function benchStudy(page: Page, url: string, n: number) {
     await page.getByRole('button', { name: 'Undo', exact: true }).click()
     undos.push(await result(page))
   }
+  samples.push({ name: `${tag}: undo`, values: undos })
   record(`${tag}: undo (median of 5)`, median(undos), 100)
   record(`${tag}: undo (worst of 5)`, Math.max(...undos), 100)
 
@@ -145,6 +149,7 @@ async function benchStudy(page: Page, url: string, n: number) {
     await page.getByRole('button', { name: 'Add bin', exact: true }).click()
     adds.push(await result(page))
   }
+  samples.push({ name: `${tag}: add row`, values: adds })
   record(`${tag}: add row (median of 5)`, median(adds), 100)
   record(`${tag}: add row (worst of 5)`, Math.max(...adds), 100)
 
@@ -168,6 +173,9 @@ async function benchStudy(page: Page, url: string, n: number) {
     await frame()
     const times: number[] = []
     for (let k = 0; k < 60; k++) {
+      // A wheel step arrives at any point of a frame, not just after one has been drawn: waiting
+      // a random part of a frame first keeps every step from also waiting out a whole frame.
+      await new Promise(resolve => setTimeout(resolve, Math.random() * 16.7))
       const t0 = performance.now()
       holder.scrollTop += 87
       let t = await frame()
@@ -176,6 +184,7 @@ async function benchStudy(page: Page, url: string, n: number) {
     }
     return times
   })
+  samples.push({ name: `${tag}: scroll steps above 16 ms`, values: steps.filter(t => t > 16) })
   record(`${tag}: scroll step (median of 60)`, median(steps), 16)
   record(`${tag}: scroll step (worst of 60)`, Math.max(...steps), 50)
 }
@@ -207,6 +216,8 @@ async function main() {
     if (!ok) missed++
     console.log(`${f.name.padEnd(width)}  ${f.value.toFixed(1).padStart(7)} ${f.unit}  ≤ ${String(f.target).padStart(4)} ${f.unit}   ${(f.value / f.target).toFixed(2)}  ${ok ? 'ok' : 'MISSED'}`)
   }
+  console.log('\nsamples, in the order taken (ms):')
+  for (const s of samples) console.log(`  ${s.name}: ${s.values.map(v => v.toFixed(0)).join(' ') || 'none'}`)
   console.log(missed ? `\n${missed} figure${missed === 1 ? '' : 's'} above target` : '\nevery figure within its target')
   process.exitCode = missed ? 1 : 0
 }

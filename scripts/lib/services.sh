@@ -92,10 +92,18 @@ max_connections = 200
 CONF
   fi
   if as_pg "$bin/pg_ctl" -D "$PGDATA_DIR" status >/dev/null 2>&1; then
+    # the fourth line of postmaster.pid is the port the running cluster listens on
+    local running; running="$(sed -n 4p "$PGDATA_DIR/postmaster.pid" 2>/dev/null)"
+    if [ -n "$running" ] && [ "$running" != "$PG_PORT" ]; then
+      log "PostgreSQL of $PGDATA_DIR already runs on port $running, not $PG_PORT: stop it (npm run stop) or set SHEAF_PG_PORT=$running"
+      return 1
+    fi
     log "PostgreSQL already running on 127.0.0.1:$PG_PORT"
   else
     log "starting PostgreSQL on 127.0.0.1:$PG_PORT"
-    as_pg "$bin/pg_ctl" -D "$PGDATA_DIR" -l "$PGDATA_DIR/server.log" -w -t 60 start >/dev/null
+    # the port is given on the command line: it wins over the one written at initdb, so a
+    # cluster made under another SHEAF_PG_PORT starts where this run looks for it
+    as_pg "$bin/pg_ctl" -D "$PGDATA_DIR" -l "$PGDATA_DIR/server.log" -o "-p $PG_PORT" -w -t 60 start >/dev/null
   fi
   if [ "$(pg_psql -c "select 1 from pg_roles where rolname = '$PG_USER'")" != 1 ]; then
     pg_psql -c "create role $PG_USER login createdb password '$PG_PASSWORD'"

@@ -90,6 +90,15 @@ describe('an analyst runs a study in the browser', () => {
     await expect.poll(() => messages.textContent(), { timeout: 10_000 }).toContain('x = 1e-7 (bin as entered: x = 1e-7, Q² = 10 GeV²) is below the set\'s smallest x node 0.00001')
     expect(await cell().getAttribute('class')).toContain('htInvalid')
     await shot(page, 'study-grid-reach')
+    // A value inside the set's reach clears the mark of the cell that was edited, and only that
+    // cell changed (a one-cell edit redraws that cell alone).
+    const before = await gridColumn(page, 'x')
+    await page.keyboard.press('ArrowUp')
+    await page.keyboard.type('0.05')
+    await page.keyboard.press('Enter')
+    await expect.poll(() => cell().getAttribute('class'), { timeout: 10_000 }).not.toContain('htInvalid')
+    expect(await gridColumn(page, 'x')).toEqual([before[0], '0.05', ...before.slice(2)])
+    await expect.poll(() => page.getByText(/^Bins to fix before running/).count(), { timeout: 10_000 }).toBe(0)
     await page.getByRole('button', { name: 'Discard' }).click()
     await expect.poll(() => gridColumn(page, 'x').then(x => x[1])).toBe('0.003')
     expect(await page.getByText(/^Bins to fix before running/).count()).toBe(0)
