@@ -1,16 +1,20 @@
 // The bins grid behaves like a spreadsheet: its height follows the rows, a pasted block's
-// trailing line break adds no bin, the Export menu opens above the grid, and a reach problem
-// sits on the cell to change, quoting the bin as entered and the limit to narrow to.
+// trailing line break adds no bin, moved and added bins stay selected, the Export menu opens
+// above the grid, and a reach problem sits on the cell to change, quoting the bin as entered and
+// the limit to narrow to.
 import type { Page } from 'playwright-core'
 import { afterAll, beforeAll, describe, expect, it } from 'vitest'
 import { launchBrowser } from '../../support/browser'
-import { openAs, runThroughApi, workflowFixture, type WorkflowFixture } from '../workflow/fixtures'
+import { gridColumn, openAs, runThroughApi, workflowFixture, type WorkflowFixture } from '../workflow/fixtures'
 
 let browser: Awaited<ReturnType<typeof launchBrowser>>
 beforeAll(async () => { browser = await launchBrowser() })
 afterAll(async () => { await browser?.close() })
 
 const gridHeight = (page: Page) => page.evaluate(() => (document.querySelector('.sheaf-bins .handsontable') as HTMLElement | null)?.getBoundingClientRect().height ?? 0)
+/** 1-based numbers of the rows whose row header shows them selected. */
+const selectedRowNumbers = (page: Page) => page.evaluate(() => Array.from(document.querySelectorAll('.sheaf-bins .ht_master tbody tr th'))
+  .filter(th => /highlight/.test(th.className)).map(th => Number(th.textContent?.trim())))
 const binCount = async (page: Page) => Number(/(\d+) bins/.exec(await page.getByRole('toolbar', { name: 'Bins' }).innerText())?.[1])
 
 /** Clicks the x cell of 1-based grid row `row`. */
@@ -49,6 +53,27 @@ describe('the bins grid as a spreadsheet', () => {
     expect(await page.getByText('a value is required').count()).toBe(0)
     await page.getByRole('button', { name: 'Save bins' }).click()
     await page.getByText('Saved 13 bins.').waitFor()
+  })
+
+  it('keeps moved bins selected, and selects the bin that Add bin puts below the selection; undo takes both back', async () => {
+    const study = await workflowFixture('Grid rows and selection', 5)
+    const page = await openAs(browser.context, study.ws.analyst, `/studies/${study.studyId}`)
+    await page.locator('.sheaf-bins .ht_master tbody td').first().waitFor()
+    const x = await gridColumn(page, 'x')
+    // the row's own header selects it (the grid draws its row headers in the table itself)
+    await page.locator('.sheaf-bins .ht_master tbody tr').nth(1).locator('th').click()
+    expect(await selectedRowNumbers(page)).toEqual([2])
+    await page.getByRole('button', { name: 'Move selected down' }).click()
+    await expect.poll(() => gridColumn(page, 'x')).toEqual([x[0], x[2], x[1], x[3], x[4]])
+    expect(await selectedRowNumbers(page)).toEqual([3])
+    await page.getByRole('button', { name: 'Add bin', exact: true }).click()
+    await expect.poll(() => binCount(page)).toBe(6)
+    expect(await gridColumn(page, 'x')).toEqual([x[0], x[2], x[1], '', x[3], x[4]])
+    expect(await selectedRowNumbers(page)).toEqual([4])
+    await page.getByRole('button', { name: 'Undo', exact: true }).click()
+    await page.getByRole('button', { name: 'Undo', exact: true }).click()
+    await expect.poll(() => gridColumn(page, 'x')).toEqual(x)
+    expect(await binCount(page)).toBe(5)
   })
 
   it('opens the Export menu above the grid\'s header, so "Figure, PNG" can be clicked and downloads', async () => {
