@@ -1,6 +1,13 @@
 import type { Config } from 'tailwindcss'
 import plugin from 'tailwindcss/plugin'
 
+type Palette = { [name: string]: string | Palette }
+/** { ink: { DEFAULT, faint } } → { ink, 'ink-faint' }: the names colour utilities take. */
+const colorNames = (palette: Palette, prefix = ''): Record<string, string> => Object.fromEntries(Object.entries(palette).flatMap(([name, value]) => {
+  const key = name === 'DEFAULT' ? prefix.replace(/-$/, '') : `${prefix}${name}`
+  return typeof value === 'string' ? [[key, value]] : Object.entries(colorNames(value, `${key}-`))
+}))
+
 /**
  * `space-y-*` and `divide-y` without sibling combinators. Tailwind's own versions select
  * `:not([hidden]) ~ :not([hidden])`: a rule with a universal subject and a sibling step, which
@@ -10,13 +17,6 @@ import plugin from 'tailwindcss/plugin'
  * versions put the gap below every child but the last (so a hidden last child leaves no gap,
  * the one difference).
  */
-type Palette = { [name: string]: string | Palette }
-/** { ink: { DEFAULT, faint } } → { ink, 'ink-faint' }: the names colour utilities take. */
-const colorNames = (palette: Palette, prefix = ''): Record<string, string> => Object.fromEntries(Object.entries(palette).flatMap(([name, value]) => {
-  const key = name === 'DEFAULT' ? prefix.replace(/-$/, '') : `${prefix}${name}`
-  return typeof value === 'string' ? [[key, value]] : Object.entries(colorNames(value, `${key}-`))
-}))
-
 const gapsWithoutSiblingRules = plugin(({ matchUtilities, theme }) => {
   const notLast = '& > :not(:last-child)'
   matchUtilities({ 'space-y': value => ({ [notLast]: { 'margin-bottom': value } }) }, { values: theme('space') })

@@ -195,10 +195,10 @@ export async function combineRun(spec: StudySpec, set: ErrorSet, roles: { main: 
   const second = roles?.second ?? null
   const bandsOf = prescriptionBands(matrix, source, clPercent, o)
   const pending = prescriptionsFor(set.header.kind).map(bandsOf)
-  // On the pool the scale variation runs beside the bands; inline it follows them.
-  const scaleNow = o.pool ? o.scale ?? scaleOnPool(spec, main, second, o.signal) : null
+  // A given or pooled scale variation runs beside the bands; inline it follows them.
+  const scaleNow = o.scale ?? (o.pool ? scaleOnPool(spec, main, second, o.signal) : null)
   const bands = await Promise.all(pending)
-  const scale = scaleNow ? await scaleNow : o.scale ? await o.scale : scaleVariationOf(spec, main, second)
+  const scale = scaleNow ? await scaleNow : scaleVariationOf(spec, main, second)
   return { members: matrix.members, bins: matrix.bins, values: matrix.values, scale: scaleWithKFactors(spec, scale), bands }
 }
 
