@@ -1,5 +1,6 @@
 // The bins grid behaves like a spreadsheet: its height follows the rows, a pasted block's
-// trailing line break adds no bin, moved and added bins stay selected, the Export menu opens
+// trailing line break adds no bin, moved and added bins stay selected, Enter saves and moves down
+// (scrolling when the bin below is out of view), the Export menu opens
 // above the grid, and a reach problem sits on the cell to change, quoting the bin as entered and
 // the limit to narrow to.
 import type { Page } from 'playwright-core'
@@ -74,6 +75,47 @@ describe('the bins grid as a spreadsheet', () => {
     await page.getByRole('button', { name: 'Undo', exact: true }).click()
     await expect.poll(() => gridColumn(page, 'x')).toEqual(x)
     expect(await binCount(page)).toBe(5)
+  })
+
+  it('saves a value with Enter and selects the bin below, also when that bin is out of view and the grid scrolls to it', async () => {
+    const bins = Array.from({ length: 60 }, (_, i) => ({ x: Number((0.001 + 0.01 * i).toPrecision(4)), q2: 10 }))
+    const study = await fx.ws.analyst.client.post(`/api/workspaces/${fx.ws.id}/studies`, {
+      name: 'Sixty bins', spec: { kernel: 'dis-nc-f2', options: {}, bins }, setIds: [fx.hessianId]
+    })
+    expect(study.status).toBe(201)
+    const page = await openAs(browser.context, fx.ws.analyst, `/studies/${study.body.id}`)
+    await page.locator('.sheaf-bins .ht_master tbody td').first().waitFor()
+    const row = (n: number) => page.locator('.sheaf-bins .ht_master tbody tr', { has: page.locator('th', { hasText: new RegExp(`^${n}$`) }) })
+    const xOf = (n: number) => row(n).locator('td').first().innerText()
+
+    // the bin below is in view: the value, the new selection and the neighbours all show
+    await row(2).locator('td').first().click()
+    await page.keyboard.type('0.3')
+    await page.keyboard.press('Enter')
+    await expect.poll(() => xOf(2)).toBe('0.3')
+    expect(await selectedRowNumbers(page)).toEqual([3])
+    expect([await xOf(1), await xOf(3)]).toEqual([String(bins[0]!.x), String(bins[2]!.x)])
+
+    // the last bin in full view: Enter moves below it, and the grid scrolls to draw that bin
+    const last = await page.evaluate(() => {
+      const holder = document.querySelector('.sheaf-bins .ht_master .wtHolder') as HTMLElement
+      const bottom = holder.getBoundingClientRect().top + holder.clientHeight
+      return Math.max(...Array.from(holder.querySelectorAll('tbody tr'))
+        .filter(tr => tr.getBoundingClientRect().bottom <= bottom + 0.5)
+        .map(tr => Number(tr.querySelector('th')?.textContent?.trim())))
+    })
+    expect(last).toBeLessThan(bins.length)
+    await row(last).locator('td').first().click()
+    await page.keyboard.type('0.4')
+    await page.keyboard.press('Enter')
+    await expect.poll(() => selectedRowNumbers(page)).toEqual([last + 1])
+    expect(await xOf(last)).toBe('0.4')
+    expect(await xOf(last + 1)).toBe(String(bins[last]!.x))
+    const shown = await row(last + 1).evaluate((tr) => {
+      const holder = tr.closest('.wtHolder') as HTMLElement
+      return tr.getBoundingClientRect().bottom <= holder.getBoundingClientRect().top + holder.clientHeight + 0.5
+    })
+    expect(shown).toBe(true)
   })
 
   it('opens the Export menu above the grid\'s header, so "Figure, PNG" can be clicked and downloads', async () => {
