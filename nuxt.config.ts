@@ -12,7 +12,7 @@ export default defineNuxtConfig({
   tailwindcss: { configPath: 'tailwind.config.ts', viewer: false },
   imports: { dirs: ['stores'] },
   // The repository keeps no top-level plugins/ folder: app plugins live in stores/plugins/.
-  plugins: ['./stores/plugins/zod-jitless.client.ts'],
+  plugins: ['./stores/plugins/zod-jitless.client.ts', './stores/plugins/flat-rows-payload.ts'],
   runtimeConfig: {
     databaseUrl: process.env.DATABASE_URL ?? 'postgres://sheaf@127.0.0.1:54329/sheaf',
     redisUrl: process.env.REDIS_URL ?? 'redis://127.0.0.1:63790',

@@ -164,6 +164,24 @@ export function binObservable(spec: ObservableSpec, row: ObservableSpec['bins'][
 }
 
 /**
+ * Every bin's observable, worked out once per layout: a bin's observable depends on the bin only
+ * through which variables are ranges, and 10,000 bins have a handful of layouts (the page works
+ * out the observable of a 10,000-bin study while it loads). Bins of one layout share one object.
+ */
+function binObservables(spec: ObservableSpec): Observable[] {
+  const names = kernelVariables(kernelDefinition(spec.kernel), spec.options as Record<string, unknown>).map(v => v.name)
+  const byLayout = new Map<string, Observable>()
+  return spec.bins.map((row) => {
+    const r = row as Record<string, unknown>
+    let key = ''
+    for (const n of names) key += r[`${n}Min`] !== undefined || r[`${n}Max`] !== undefined ? 'r' : 'p'
+    let o = byLayout.get(key)
+    if (!o) byLayout.set(key, o = binObservable(spec, row))
+    return o
+  })
+}
+
+/**
  * The issues of a study whose bins do not all give the unit of bin 1 (a ranged M beside a point
  * M: pb beside pb/GeV), at most `limit`. Bins that change only the name (x integrated in some
  * bins of a d²σ/dx dQ² study, at a point in others; the unit stays pb) are allowed: the name is
@@ -173,13 +191,14 @@ export function observableIssues(spec: ObservableSpec, limit = 20): ObservableIs
   if (!spec.bins.length) return []
   const def = kernelDefinition(spec.kernel)
   const names = kernelVariables(def, spec.options as Record<string, unknown>).map(v => v.name)
-  const first = binObservable(spec, spec.bins[0]!)
+  const each = binObservables(spec)
+  const first = each[0]!
   const firstLayout = layoutOf(spec.bins[0]!, names)
   const issues: ObservableIssue[] = []
   const describe = (o: Observable) => `${o.name} [${o.unit ?? 'dimensionless'}]`
   for (let i = 1; i < spec.bins.length && issues.length < limit; i++) {
     const row = spec.bins[i]!
-    const o = binObservable(spec, row)
+    const o = each[i]!
     if (o.unit === first.unit) continue
     const layout = layoutOf(row, names)
     const variable = names.find(n => layout.get(n) !== firstLayout.get(n)) ?? names[0]!
@@ -203,7 +222,7 @@ export function studyObservable(spec: ObservableSpec): Observable {
   const [issue] = observableIssues(spec, 1)
   if (issue) throw new RangeError(issue.message)
   if (!spec.bins.length) return binObservable(spec, {})
-  const each = spec.bins.map(row => binObservable(spec, row))
+  const each = binObservables(spec)
   const distinct = [...new Map(each.map(o => [o.name, o])).values()]
   if (distinct.length === 1) return distinct[0]!
   return {

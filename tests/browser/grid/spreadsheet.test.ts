@@ -78,13 +78,15 @@ describe('the bins grid as a spreadsheet', () => {
   })
 
   it('saves a value with Enter and selects the bin below, also when that bin is out of view and the grid scrolls to it', async () => {
-    const bins = Array.from({ length: 60 }, (_, i) => ({ x: Number((0.001 + 0.01 * i).toPrecision(4)), q2: 10 }))
+    // 300 bins: more than 255, so the page's payload carries them as JSON text (stores/plugins/flat-rows.ts)
+    const bins = Array.from({ length: 300 }, (_, i) => ({ x: Number((0.001 + 0.0025 * i).toPrecision(4)), q2: 10 }))
     const study = await fx.ws.analyst.client.post(`/api/workspaces/${fx.ws.id}/studies`, {
-      name: 'Sixty bins', spec: { kernel: 'dis-nc-f2', options: {}, bins }, setIds: [fx.hessianId]
+      name: 'Three hundred bins', spec: { kernel: 'dis-nc-f2', options: {}, bins }, setIds: [fx.hessianId]
     })
     expect(study.status).toBe(201)
     const page = await openAs(browser.context, fx.ws.analyst, `/studies/${study.body.id}`)
     await page.locator('.sheaf-bins .ht_master tbody td').first().waitFor()
+    expect(await binCount(page)).toBe(300)
     const row = (n: number) => page.locator('.sheaf-bins .ht_master tbody tr', { has: page.locator('th', { hasText: new RegExp(`^${n}$`) }) })
     const xOf = (n: number) => row(n).locator('td').first().innerText()
 
