@@ -84,18 +84,19 @@ export function validateRows(rows: readonly Readonly<BinRow>[], columns: readonl
   }
   rows.forEach((row, index) => {
     const before = errors.length
-    const rowErrors = new Set<string>()
+    let rowErrors: Set<string> | null = null // made for a row with a problem only (10,000 rows at a load)
     for (const column of columns) {
       const reason = checkCell(row[column.key] ?? null, column)
       if (reason) {
         push(index, column, reason)
+        rowErrors ??= new Set()
         rowErrors.add(column.key)
       }
     }
     for (const [lo, hi] of pairs) {
       const a = row[lo.key]
       const b = row[hi.key]
-      if (rowErrors.has(lo.key) || rowErrors.has(hi.key) || typeof a !== 'number' || typeof b !== 'number') continue
+      if (rowErrors?.has(lo.key) || rowErrors?.has(hi.key) || typeof a !== 'number' || typeof b !== 'number') continue
       if (!(a < b)) push(index, hi, `must be above ${lo.label} (${withUnit(a, lo)})`)
     }
     if (errors.length > before) return
