@@ -170,11 +170,12 @@ export function binObservable(spec: ObservableSpec, row: ObservableSpec['bins'][
  */
 function binObservables(spec: ObservableSpec): Observable[] {
   const names = kernelVariables(kernelDefinition(spec.kernel), spec.options as Record<string, unknown>).map(v => v.name)
+  const ends = names.map(n => [`${n}Min`, `${n}Max`] as const)
   const byLayout = new Map<string, Observable>()
   return spec.bins.map((row) => {
     const r = row as Record<string, unknown>
     let key = ''
-    for (const n of names) key += r[`${n}Min`] !== undefined || r[`${n}Max`] !== undefined ? 'r' : 'p'
+    for (const [lo, hi] of ends) key += r[lo] !== undefined || r[hi] !== undefined ? 'r' : 'p'
     let o = byLayout.get(key)
     if (!o) byLayout.set(key, o = binObservable(spec, row))
     return o
@@ -188,10 +189,13 @@ function binObservables(spec: ObservableSpec): Observable[] {
  * then given per bin ({@link Observable.perBin}).
  */
 export function observableIssues(spec: ObservableSpec, limit = 20): ObservableIssue[] {
-  if (!spec.bins.length) return []
+  return spec.bins.length ? issuesOf(spec, binObservables(spec), limit) : []
+}
+
+/** {@link observableIssues} from the bins' observables, worked out once by the caller. */
+function issuesOf(spec: ObservableSpec, each: readonly Observable[], limit: number): ObservableIssue[] {
   const def = kernelDefinition(spec.kernel)
   const names = kernelVariables(def, spec.options as Record<string, unknown>).map(v => v.name)
-  const each = binObservables(spec)
   const first = each[0]!
   const firstLayout = layoutOf(spec.bins[0]!, names)
   const issues: ObservableIssue[] = []
@@ -219,10 +223,10 @@ export function observableIssues(spec: ObservableSpec, limit = 20): ObservableIs
  * @example studyObservable({ kernel: 'drell-yan', options: { sqrtSGeV: 13000 }, bins: [{ mMin: 100, mMax: 200, yMin: -2.5, yMax: 2.5 }] }).unit // 'pb'
  */
 export function studyObservable(spec: ObservableSpec): Observable {
-  const [issue] = observableIssues(spec, 1)
-  if (issue) throw new RangeError(issue.message)
   if (!spec.bins.length) return binObservable(spec, {})
   const each = binObservables(spec)
+  const [issue] = issuesOf(spec, each, 1)
+  if (issue) throw new RangeError(issue.message)
   const distinct = [...new Map(each.map(o => [o.name, o])).values()]
   if (distinct.length === 1) return distinct[0]!
   return {
